@@ -1,0 +1,99 @@
+// Builds the Express application from its dependencies. No side effects: nothing listens,
+// nothing connects; server.ts and the tests do that.
+import { randomUUID } from 'node:crypto';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import type { DataSource } from 'typeorm';
+import './lib/openapi';
+import { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
+import { FieldErrorSchema, ProblemDetailsSchema } from '@emberline/domain';
+import type { Config } from './config';
+import type { Logger } from './lib/logger';
+import { ApiRouter } from './lib/api-router';
+import { apiNotFound, problemDetails } from './middleware/problem-details';
+import { registerCatalogueRoutes } from './routes/catalogue.routes';
+import { registerHealthRoutes } from './routes/health.routes';
+import { docsRouter } from './routes/docs.routes';
+
+export interface AppDeps {
+  config: Pick<Config, 'SERVE_APPS' | 'APPS_DIR' | 'TRUST_PROXY' | 'publicUrl'>;
+  dataSource: DataSource;
+  logger: Logger;
+  version: string;
+}
+
+export interface EmberlineApp extends Express {
+  /** The OpenAPI registry every route was declared in (tests enumerate it). */
+  readonly openApiRegistry: OpenAPIRegistry;
+}
+
+function serveApps(app: Express, appsDir: string): void {
+  const directoryHtml = path.join(appsDir, 'index.html');
+  const consoleHtml = path.join(appsDir, 'apps/console/index.html');
+  if (!existsSync(directoryHtml)) {
+    app.get(/^\/(?!api\/).*/, (_req, res) => {
+      res.status(503).type('text/plain').send('The apps are not built yet. Run "npm run build", or use "npm start", which builds them.');
+    });
+    return;
+  }
+  app.use('/assets', express.static(path.join(appsDir, 'assets'), { immutable: true, maxAge: '1y', fallthrough: false }));
+  app.use(express.static(appsDir, { index: false, maxAge: '1h' }));
+  const spa = (file: string): express.RequestHandler => (req, res, next) => {
+    if (req.method !== 'GET' && req.method !== 'HEAD') return next();
+    res.set('cache-control', 'no-cache').sendFile(file);
+  };
+  app.get(/^\/console(\/.*)?$/, spa(consoleHtml));
+  app.get(/^\/(?!api(\/|$)).*/, spa(directoryHtml));
+}
+
+export function createApp(deps: AppDeps): EmberlineApp {
+  const app = express() as unknown as EmberlineApp & { openApiRegistry: OpenAPIRegistry };
+  app.disable('x-powered-by');
+  app.set('trust proxy', deps.config.TRUST_PROXY);
+  // HTTPS-only headers make sense only where the public URL is HTTPS (production behind TLS)
+  const https = deps.config.publicUrl.startsWith('https:');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'connect-src': ["'self'"],
+          'upgrade-insecure-requests': https ? [] : null,
+        },
+      },
+      strictTransportSecurity: https,
+    }),
+  );
+  app.use(
+    pinoHttp({
+      logger: deps.logger,
+      genReqId: (req, res) => {
+        const incoming = req.headers['x-request-id'];
+        const id = typeof incoming === 'string' && /^[\w-]{8,64}$/.test(incoming) ? incoming : randomUUID();
+        res.setHeader('x-request-id', id);
+        return id;
+      },
+      autoLogging: { ignore: (req) => req.url === '/api/health' },
+    }),
+  );
+
+  const registry = new OpenAPIRegistry();
+  registry.register('ProblemDetails', ProblemDetailsSchema);
+  registry.register('FieldError', FieldErrorSchema);
+  app.openApiRegistry = registry;
+
+  const api = new ApiRouter(registry, '/api');
+  api.router.use(express.json({ limit: '1mb' }));
+  registerHealthRoutes(api, deps);
+  registerCatalogueRoutes(api, deps);
+  api.router.use(docsRouter(registry, deps.version));
+  api.router.use(apiNotFound);
+
+  app.use('/api', api.router);
+  if (deps.config.SERVE_APPS) serveApps(app, deps.config.APPS_DIR);
+  app.use(problemDetails);
+  return app;
+}

@@ -1,0 +1,41 @@
+// Seeds what every environment needs and the invented demo scenario. Idempotent: running it
+// twice adds nothing twice.
+import type { EntityManager } from 'typeorm';
+import { CapabilityEntity, ServiceTypeEntity } from '../../entities';
+import { CAPABILITIES, SERVICE_TYPES } from './catalogue-data';
+
+export interface SeedReport {
+  capabilitiesAdded: number;
+  serviceTypesAdded: number;
+}
+
+export async function seedCatalogue(manager: EntityManager): Promise<SeedReport> {
+  const capabilities = manager.getRepository(CapabilityEntity);
+  const serviceTypes = manager.getRepository(ServiceTypeEntity);
+  const report: SeedReport = { capabilitiesAdded: 0, serviceTypesAdded: 0 };
+
+  const existing = new Map((await capabilities.find()).map((c) => [c.code, c]));
+  for (const seed of CAPABILITIES) {
+    if (existing.has(seed.code)) continue;
+    existing.set(seed.code, await capabilities.save(capabilities.create({ ...seed, retired: false })));
+    report.capabilitiesAdded++;
+  }
+
+  const existingTypes = new Set((await serviceTypes.find({ select: { code: true } })).map((s) => s.code));
+  for (const [index, seed] of SERVICE_TYPES.entries()) {
+    if (existingTypes.has(seed.code)) continue;
+    const required = seed.requiredCapabilities.map((code) => {
+      const capability = existing.get(code);
+      if (!capability) throw new Error(`Seed: service type ${seed.code} requires unknown capability ${code}`);
+      return capability;
+    });
+    const { requiredCapabilities: _codes, ...fields } = seed;
+    await serviceTypes.save(serviceTypes.create({ ...fields, sortOrder: index * 10, retired: false, requiredCapabilities: required }));
+    report.serviceTypesAdded++;
+  }
+  return report;
+}
+
+export async function runSeed(manager: EntityManager): Promise<SeedReport> {
+  return manager.transaction((tx) => seedCatalogue(tx));
+}

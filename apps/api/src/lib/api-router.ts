@@ -1,0 +1,119 @@
+// Declares an API route once: Express handler, zod validation and its OpenAPI entry together.
+import express, { type Request, type Response, type NextFunction, type RequestHandler } from 'express';
+import type { OpenAPIRegistry, RouteConfig } from '@asteasolutions/zod-to-openapi';
+
+type RouteParameter = NonNullable<RouteConfig['request']>['query'];
+import { z } from 'zod';
+import { ProblemDetailsSchema, type FieldError } from '@emberline/domain';
+import { ValidationFailed } from './errors';
+
+type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
+type AnyObject = z.ZodObject;
+
+export interface RouteSpec<Q extends AnyObject, P extends AnyObject, B extends z.ZodType, R extends z.ZodType> {
+  method: Method;
+  /** Express-style path relative to the router's mount point, e.g. "/catalogue/service-types/:code". */
+  path: string;
+  summary: string;
+  description?: string;
+  tags: string[];
+  query?: Q;
+  params?: P;
+  body?: B;
+  /** Schema of the success body, `{ data, meta? }`. */
+  response: R;
+  status?: 200 | 201 | 202;
+  /** Extra middleware (auth, rate limits) run before validation. */
+  before?: RequestHandler[];
+  /** Problem statuses this route can answer besides 400 and 500. */
+  problems?: number[];
+}
+
+export interface RouteInput<Q, P, B> {
+  query: Q;
+  params: P;
+  body: B;
+  req: Request;
+  res: Response;
+}
+
+export function toFieldErrors(error: z.ZodError, prefix?: string): FieldError[] {
+  return error.issues.map((issue) => ({
+    path: [prefix, ...issue.path.map(String)].filter(Boolean).join('.'),
+    message: issue.message,
+  }));
+}
+
+const problemContent = { 'application/problem+json': { schema: ProblemDetailsSchema } };
+const problemDescriptions: Record<number, string> = {
+  400: 'Bad input (problem details with field errors)',
+  401: 'Not signed in',
+  403: 'Not allowed',
+  404: 'Not found',
+  409: 'Conflict',
+  429: 'Too many requests',
+  500: 'Unexpected error',
+  503: 'Temporarily unavailable',
+};
+
+export class ApiRouter {
+  readonly router = express.Router();
+  constructor(
+    readonly registry: OpenAPIRegistry,
+    /** Where the router is mounted, used for OpenAPI paths, e.g. "/api". */
+    readonly mountPath: string,
+  ) {}
+
+  route<Q extends AnyObject, P extends AnyObject, B extends z.ZodType, R extends z.ZodType>(
+    spec: RouteSpec<Q, P, B, R>,
+    handler: (input: RouteInput<z.infer<Q>, z.infer<P>, z.infer<B>>) => Promise<z.infer<R>> | z.infer<R>,
+  ): void {
+    this.document(spec);
+    const validateAndRun = async (req: Request, res: Response, next: NextFunction) => {
+      const errors: FieldError[] = [];
+      const take = <S extends z.ZodType>(schema: S | undefined, value: unknown, where: string): unknown => {
+        if (!schema) return value;
+        const result = schema.safeParse(value ?? {});
+        if (!result.success) {
+          errors.push(...toFieldErrors(result.error, where === 'body' ? undefined : where));
+          return undefined;
+        }
+        return result.data;
+      };
+      const params = take(spec.params, req.params, 'params');
+      const query = take(spec.query, req.query, 'query');
+      const body = take(spec.body, req.body, 'body');
+      if (errors.length) return next(ValidationFailed('Please correct the highlighted fields.', errors));
+      const data = await handler({ query, params, body, req, res } as RouteInput<z.infer<Q>, z.infer<P>, z.infer<B>>);
+      if (res.headersSent) return;
+      // a handler may set its own status (e.g. 503 from health); otherwise use the declared one
+      if (res.statusCode === 200 && spec.status) res.status(spec.status);
+      res.json(data);
+    };
+    this.router[spec.method](spec.path, ...(spec.before ?? []), validateAndRun);
+  }
+
+  private document(spec: RouteSpec<AnyObject, AnyObject, z.ZodType, z.ZodType>): void {
+    const openApiPath = (this.mountPath + spec.path).replace(/:([A-Za-z0-9_]+)/g, '{$1}');
+    const problems = new Set([400, 500, ...(spec.problems ?? [])]);
+    const responses: RouteConfig['responses'] = {
+      [spec.status ?? 200]: { description: 'Success', content: { 'application/json': { schema: spec.response } } },
+    };
+    for (const status of [...problems].sort()) {
+      responses[status] = { description: problemDescriptions[status] ?? 'Problem', content: problemContent };
+    }
+    this.registry.registerPath({
+      method: spec.method,
+      path: openApiPath,
+      summary: spec.summary,
+      description: spec.description,
+      tags: spec.tags,
+      request: {
+        query: spec.query as RouteParameter,
+        params: spec.params as RouteParameter,
+        body: spec.body ? { content: { 'application/json': { schema: spec.body } } } : undefined,
+      },
+      responses,
+    });
+  }
+}

@@ -1,0 +1,4 @@
+// Typed client for the Emberline API, shared by both apps and the tests.
+export * from './http';
+export * from './catalogue';
+export * from './health';

@@ -1,0 +1,4 @@
+// Public surface of the pure domain package: schemas and computations, no I/O.
+export * from './schemas/problem';
+export * from './schemas/catalogue';
+export * from './schemas/health';

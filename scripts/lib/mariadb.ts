@@ -1,0 +1,170 @@
+// A MariaDB server private to the project: data directory inside var/, listening on
+// 127.0.0.1 only, started and stopped by PID.
+import { spawn, spawnSync } from 'node:child_process';
+import { closeSync, existsSync, mkdirSync, openSync, readFileSync, rmSync } from 'node:fs';
+import path from 'node:path';
+import { portInUse } from './net';
+
+export interface MariaDbInstance {
+  dir: string;
+  port: number;
+  socket: string;
+  pid: number;
+  /** False when a server from an earlier run was already up and is being reused. */
+  startedHere: boolean;
+  stop(): Promise<void>;
+}
+
+export class MariaDbError extends Error {}
+
+const alive = (pid: number) => {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch {
+    return false;
+  }
+};
+
+function tail(file: string, lines = 25): string {
+  if (!existsSync(file)) return '(no error log written)';
+  return readFileSync(file, 'utf8').trimEnd().split('\n').slice(-lines).join('\n');
+}
+
+function ping(socket: string): boolean {
+  const r = spawnSync('mariadb-admin', ['--no-defaults', `--socket=${socket}`, '-uroot', '--connect-timeout=2', 'ping'], { stdio: 'ignore' });
+  return r.status === 0;
+}
+
+export function paths(dir: string) {
+  return {
+    data: path.join(dir, 'data'),
+    socket: path.join(dir, 'mariadb.sock'),
+    pidFile: path.join(dir, 'mariadb.pid'),
+    errorLog: path.join(dir, 'mariadb.err'),
+  };
+}
+
+function readPid(pidFile: string): number | null {
+  if (!existsSync(pidFile)) return null;
+  const pid = Number(readFileSync(pidFile, 'utf8').trim());
+  return Number.isInteger(pid) && pid > 0 ? pid : null;
+}
+
+async function waitFor(check: () => boolean, ms: number, interval = 100): Promise<boolean> {
+  const until = Date.now() + ms;
+  while (Date.now() < until) {
+    if (check()) return true;
+    await new Promise((r) => setTimeout(r, interval));
+  }
+  return check();
+}
+
+function instance(dir: string, port: number, pid: number, startedHere: boolean): MariaDbInstance {
+  const p = paths(dir);
+  return {
+    dir,
+    port,
+    socket: p.socket,
+    pid,
+    startedHere,
+    async stop() {
+      if (!alive(pid)) return;
+      process.kill(pid, 'SIGTERM');
+      if (!(await waitFor(() => !alive(pid), 30_000))) {
+        process.kill(pid, 'SIGKILL');
+        await waitFor(() => !alive(pid), 5_000);
+      }
+    },
+  };
+}
+
+/** Starts the server for `dir` (creating its data directory on first use) or reuses a running one. */
+export async function startMariaDb(dir: string, port: number): Promise<MariaDbInstance> {
+  const p = paths(dir);
+  mkdirSync(dir, { recursive: true });
+
+  const existing = readPid(p.pidFile);
+  if (existing && alive(existing) && ping(p.socket)) return instance(dir, port, existing, false);
+  if (existing && !alive(existing)) {
+    rmSync(p.pidFile, { force: true });
+    rmSync(p.socket, { force: true });
+  }
+
+  if (!existsSync(path.join(p.data, 'mysql'))) {
+    const init = spawnSync(
+      'mariadb-install-db',
+      ['--no-defaults', `--datadir=${p.data}`, '--user=root', '--auth-root-authentication-method=normal', '--skip-test-db'],
+      { encoding: 'utf8' },
+    );
+    if (init.status !== 0) {
+      rmSync(p.data, { recursive: true, force: true });
+      throw new MariaDbError(`mariadb-install-db failed:\n${init.stderr || init.stdout}`);
+    }
+  }
+
+  if (await portInUse('127.0.0.1', port)) {
+    throw new MariaDbError(`Port ${port} on 127.0.0.1 is already in use, so MariaDB cannot listen there. Stop that program or set DB_PORT.`);
+  }
+
+  rmSync(p.errorLog, { force: true });
+  const log = openSync(p.errorLog, 'a');
+  const child = spawn(
+    'mariadbd',
+    [
+      '--no-defaults',
+      `--datadir=${p.data}`,
+      `--socket=${p.socket}`,
+      `--pid-file=${p.pidFile}`,
+      `--port=${port}`,
+      '--bind-address=127.0.0.1',
+      '--user=root',
+      `--log-error=${p.errorLog}`,
+      '--character-set-server=utf8mb4',
+      '--collation-server=utf8mb4_unicode_ci',
+      '--default-time-zone=+00:00',
+      '--skip-name-resolve',
+      '--innodb-buffer-pool-size=128M',
+    ],
+    { detached: true, stdio: ['ignore', log, log] },
+  );
+  closeSync(log);
+  child.unref();
+  let exited: number | null = null;
+  child.on('exit', (code) => (exited = code ?? -1));
+
+  const ready = await waitFor(() => exited === null && ping(p.socket), 30_000, 150);
+  if (!ready) {
+    if (child.pid && alive(child.pid)) process.kill(child.pid, 'SIGKILL');
+    throw new MariaDbError(`MariaDB did not start${exited !== null ? ` (exit code ${exited})` : ' within 30 s'}. The end of its error log (${p.errorLog}):\n${tail(p.errorLog)}`);
+  }
+  return instance(dir, port, child.pid!, true);
+}
+
+function sqlString(s: string): string {
+  return `'${s.replace(/\\/g, '\\\\').replace(/'/g, "\\'")}'`;
+}
+
+/** Runs SQL as the local root account through the socket. */
+export function rootSql(instanceOrSocket: MariaDbInstance | string, sql: string): string {
+  const socket = typeof instanceOrSocket === 'string' ? instanceOrSocket : instanceOrSocket.socket;
+  const r = spawnSync('mariadb', ['--no-defaults', `--socket=${socket}`, '-uroot', '--batch', '--skip-column-names'], { input: sql, encoding: 'utf8' });
+  if (r.status !== 0) throw new MariaDbError(`SQL failed: ${r.stderr.trim()}`);
+  return r.stdout;
+}
+
+/** Creates the database (optionally from scratch) and an application user granted on it only. */
+export function ensureDatabase(db: MariaDbInstance, o: { name: string; user: string; password: string; recreate?: boolean }): void {
+  if (!/^\w+$/.test(o.name) || !/^\w+$/.test(o.user)) throw new MariaDbError('Database and user names must be letters, digits and _.');
+  const statements = [
+    o.recreate ? `DROP DATABASE IF EXISTS \`${o.name}\`;` : '',
+    `CREATE DATABASE IF NOT EXISTS \`${o.name}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;`,
+    ...['127.0.0.1', 'localhost'].flatMap((host) => [
+      `CREATE USER IF NOT EXISTS '${o.user}'@'${host}' IDENTIFIED BY ${sqlString(o.password)};`,
+      `ALTER USER '${o.user}'@'${host}' IDENTIFIED BY ${sqlString(o.password)};`,
+      `GRANT ALL PRIVILEGES ON \`${o.name}\`.* TO '${o.user}'@'${host}';`,
+    ]),
+    'FLUSH PRIVILEGES;',
+  ];
+  rootSql(db, statements.join('\n'));
+}

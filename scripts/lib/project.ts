@@ -1,0 +1,54 @@
+// Where the project keeps its local state, and the settings for the dev and test databases.
+import { randomBytes } from 'node:crypto';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+export const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
+export const varDir = path.join(root, 'var');
+export const bin = (name: string) => path.join(root, 'node_modules/.bin', name);
+
+/** A random secret generated once into the git-ignored var/ folder, never committed. */
+export function localSecret(name: string): string {
+  mkdirSync(varDir, { recursive: true });
+  const file = path.join(varDir, 'secrets.json');
+  const secrets: Record<string, string> = existsSync(file) ? JSON.parse(readFileSync(file, 'utf8')) : {};
+  if (!secrets[name]) {
+    secrets[name] = randomBytes(18).toString('base64url');
+    writeFileSync(file, JSON.stringify(secrets, null, 2) + '\n', { mode: 0o600 });
+  }
+  return secrets[name]!;
+}
+
+export interface DatabaseSettings {
+  dir: string;
+  port: number;
+  name: string;
+  user: string;
+  password: string;
+}
+
+export function devDatabase(env = process.env): DatabaseSettings {
+  return {
+    dir: path.join(varDir, 'mariadb'),
+    port: Number(env.DB_PORT ?? 3307),
+    name: env.DB_NAME ?? 'emberline',
+    user: env.DB_USER ?? 'emberline',
+    password: env.DB_PASSWORD ?? localSecret('devDbPassword'),
+  };
+}
+
+/** Tests use their own server and data directory, so they never touch development data. */
+export function testDatabase(name: 'emberline_test' | 'emberline_e2e', env = process.env): DatabaseSettings {
+  return {
+    dir: path.join(varDir, 'test-mariadb'),
+    port: Number(env.TEST_DB_PORT ?? 3308),
+    name,
+    user: 'emberline_test',
+    password: localSecret('testDbPassword'),
+  };
+}
+
+export function dbEnv(db: DatabaseSettings): Record<string, string> {
+  return { DB_HOST: '127.0.0.1', DB_PORT: String(db.port), DB_NAME: db.name, DB_USER: db.user, DB_PASSWORD: db.password };
+}
