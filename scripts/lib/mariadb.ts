@@ -69,11 +69,14 @@ function instance(dir: string, port: number, pid: number, startedHere: boolean):
     pid,
     startedHere,
     async stop() {
-      if (!alive(pid)) return;
-      process.kill(pid, 'SIGTERM');
-      if (!(await waitFor(() => !alive(pid), 30_000))) {
-        process.kill(pid, 'SIGKILL');
-        await waitFor(() => !alive(pid), 5_000);
+      // the server may have been restarted since (the fault tests do): stop whatever this
+      // data directory's pid file names now
+      const current = readPid(p.pidFile) ?? pid;
+      if (!alive(current)) return;
+      process.kill(current, 'SIGTERM');
+      if (!(await waitFor(() => !alive(current), 30_000))) {
+        process.kill(current, 'SIGKILL');
+        await waitFor(() => !alive(current), 5_000);
       }
     },
   };

@@ -7,9 +7,7 @@ import express, { type Express } from 'express';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
 import type { DataSource } from 'typeorm';
-import './lib/openapi';
 import { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
-import { FieldErrorSchema, ProblemDetailsSchema } from '@emberline/domain';
 import type { Config } from './config';
 import type { Logger } from './lib/logger';
 import { ApiRouter } from './lib/api-router';
@@ -81,8 +79,6 @@ export function createApp(deps: AppDeps): EmberlineApp {
   );
 
   const registry = new OpenAPIRegistry();
-  registry.register('ProblemDetails', ProblemDetailsSchema);
-  registry.register('FieldError', FieldErrorSchema);
   app.openApiRegistry = registry;
 
   const api = new ApiRouter(registry, '/api');
