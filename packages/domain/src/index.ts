@@ -2,3 +2,5 @@
 export * from './schemas/problem';
 export * from './schemas/catalogue';
 export * from './schemas/health';
+export * from './heater';
+export * from './schemas/preheat';

@@ -243,6 +243,22 @@ describe('planPreheat', () => {
     expect(Date.parse(asDate.recommendedStart!)).toBe(Date.parse(plan.recommendedStart!));
   });
 
+  it('never recommends a start later than departure − time to target, and never a full minute earlier', () => {
+    const ttt = planPreheat(input()).timeToTargetMinutes! * 60_000;
+    fc.assert(
+      fc.property(fc.integer({ min: 0, max: 24 * 3600 - 1 }), (secondOfDay) => {
+        const departure = new Date(Date.UTC(2026, 0, 15) + secondOfDay * 1000);
+        const plan = planPreheat(input({ departure }));
+        const start = Date.parse(plan.recommendedStart!);
+        const latest = departure.getTime() - ttt;
+        expect(start % 60_000).toBe(0);
+        expect(start).toBeLessThanOrEqual(latest);
+        expect(latest - start).toBeLessThan(60_000);
+      }),
+      { numRuns: 50 },
+    );
+  });
+
   it('reports "not reachable" with a reason when the steady state stays below the target', () => {
     const plan = planPreheat(input({ heaterOutputKw: 1, outsideTemperatureC: -30, targetCoolantTemperatureC: 80 }));
     expect(plan.steadyState.coolantC).toBeLessThan(80);
