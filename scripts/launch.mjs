@@ -21,6 +21,9 @@ if (major < 20 || (major === 20 && minor < 19)) {
   process.exit(2);
 }
 
+// a local .env (git-ignored) sets configuration for every command; see .env.example
+if (existsSync(path.join(root, '.env'))) process.loadEnvFile(path.join(root, '.env'));
+
 const marker = path.join(root, 'node_modules', '.package-lock.json');
 const lock = path.join(root, 'package-lock.json');
 const stale = !existsSync(marker) || !existsSync(path.join(root, 'node_modules/.bin/tsx')) || statSync(marker).mtimeMs < statSync(lock).mtimeMs;

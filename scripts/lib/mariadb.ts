@@ -83,7 +83,7 @@ function instance(dir: string, port: number, pid: number, startedHere: boolean):
 }
 
 /** Starts the server for `dir` (creating its data directory on first use) or reuses a running one. */
-export async function startMariaDb(dir: string, port: number): Promise<MariaDbInstance> {
+export async function startMariaDb(dir: string, port: number, o: { extraArgs?: string[] } = {}): Promise<MariaDbInstance> {
   const p = paths(dir);
   mkdirSync(dir, { recursive: true });
 
@@ -128,6 +128,7 @@ export async function startMariaDb(dir: string, port: number): Promise<MariaDbIn
       '--default-time-zone=+00:00',
       '--skip-name-resolve',
       '--innodb-buffer-pool-size=128M',
+      ...(o.extraArgs ?? []),
     ],
     { detached: true, stdio: ['ignore', log, log] },
   );
@@ -136,7 +137,8 @@ export async function startMariaDb(dir: string, port: number): Promise<MariaDbIn
   let exited: number | null = null;
   child.on('exit', (code) => (exited = code ?? -1));
 
-  const ready = await waitFor(() => exited === null && ping(p.socket), 30_000, 150);
+  await waitFor(() => exited !== null || ping(p.socket), 30_000, 150);
+  const ready = exited === null && ping(p.socket);
   if (!ready) {
     if (child.pid && alive(child.pid)) process.kill(child.pid, 'SIGKILL');
     throw new MariaDbError(`MariaDB did not start${exited !== null ? ` (exit code ${exited})` : ' within 30 s'}. The end of its error log (${p.errorLog}):\n${tail(p.errorLog)}`);

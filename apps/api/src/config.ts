@@ -23,7 +23,7 @@ export const EnvSchema = z.object({
   DB_PASSWORD: z.string().min(1, 'must not be empty'),
   DB_POOL_SIZE: z.coerce.number().int().min(1).max(200).default(10),
   SERVE_APPS: flag(true),
-  APPS_DIR: z.string().default(path.join(projectRoot, 'dist')),
+  APPS_DIR: z.string().default('dist').transform((dir) => path.resolve(projectRoot, dir)),
   TRUST_PROXY: flag(false),
 });
 
