@@ -4,3 +4,4 @@ export * from './schemas/catalogue';
 export * from './schemas/health';
 export * from './heater';
 export * from './schemas/preheat';
+export * from './schemas/accounts';

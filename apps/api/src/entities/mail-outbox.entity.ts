@@ -1,0 +1,49 @@
+// One e-mail waiting to be sent, sent, or given up on; rendered when queued.
+import { Column, Entity, PrimaryColumn } from 'typeorm';
+
+export type MailStatus = 'pending' | 'sent' | 'failed';
+
+@Entity({ name: 'mail_outbox' })
+export class MailOutboxEntity {
+  @PrimaryColumn({ type: 'char', length: 36 })
+  id!: string;
+
+  @Column({ type: 'varchar', length: 254, name: 'to_address' })
+  to!: string;
+
+  @Column({ type: 'varchar', length: 48 })
+  template!: string;
+
+  @Column({ type: 'varchar', length: 5 })
+  locale!: string;
+
+  @Column({ type: 'varchar', length: 300 })
+  subject!: string;
+
+  @Column({ type: 'mediumtext', name: 'text_body' })
+  text!: string;
+
+  @Column({ type: 'mediumtext', name: 'html_body' })
+  html!: string;
+
+  @Column({ type: 'varchar', length: 12, default: 'pending' })
+  status!: MailStatus;
+
+  @Column({ type: 'smallint', unsigned: true, default: 0 })
+  attempts!: number;
+
+  @Column({ type: 'datetime', precision: 3 })
+  nextAttemptAt!: Date;
+
+  @Column({ type: 'varchar', length: 500, nullable: true })
+  lastError!: string | null;
+
+  @Column({ type: 'varchar', length: 300, nullable: true })
+  messageId!: string | null;
+
+  @Column({ type: 'datetime', precision: 3, nullable: true })
+  sentAt!: Date | null;
+
+  @Column({ type: 'datetime', precision: 3, default: () => 'CURRENT_TIMESTAMP(3)' })
+  createdAt!: Date;
+}

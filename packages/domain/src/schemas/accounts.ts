@@ -1,0 +1,190 @@
+// Accounts, sessions, organisations, memberships and invitations: the shapes both apps, the
+// API and the tests agree on.
+import { z } from 'zod';
+
+export const ROLES = ['owner', 'technician', 'partner_admin', 'network_admin'] as const;
+export const RoleSchema = z.enum(ROLES);
+export type Role = z.infer<typeof RoleSchema>;
+
+/** Roles a membership of a partner organisation can carry. */
+export const MEMBER_ROLES = ['partner_admin', 'technician'] as const;
+export const MemberRoleSchema = z.enum(MEMBER_ROLES);
+export type MemberRole = z.infer<typeof MemberRoleSchema>;
+
+export const ORGANISATION_STATUSES = ['draft', 'submitted', 'in_review', 'changes_requested', 'approved', 'rejected', 'suspended'] as const;
+export const OrganisationStatusSchema = z.enum(ORGANISATION_STATUSES);
+export type OrganisationStatus = z.infer<typeof OrganisationStatusSchema>;
+
+export const IdSchema = z.uuid('Not a valid id');
+
+export const EmailSchema = z
+  .string({ error: 'Enter your e-mail address' })
+  .trim()
+  .min(1, 'Enter your e-mail address')
+  .max(254, 'An e-mail address has at most 254 characters')
+  .pipe(z.email('Enter a valid e-mail address'))
+  .transform((e) => e.toLowerCase());
+
+/**
+ * A short list of the most common passwords (taken from widely published breach top lists).
+ * The check compares case-insensitively and ignores trailing digits and punctuation.
+ */
+export const COMMON_PASSWORDS: readonly string[] = [
+  'password', 'passwort', 'qwertyuiop', 'qwertzuiop', 'asdfghjkl', 'iloveyou', 'sunshine', 'princess', 'football',
+  'baseball', 'welcome', 'letmein', 'monkey', 'dragon', 'master', 'superman', 'trustno', 'starwars', 'whatever',
+  'admin', 'administrator', 'changeme', 'secret', 'abcdefghij', 'abcdefg', 'qwerty', 'azerty', 'passw0rd', 'p@ssw0rd',
+  'hallo', 'sommer', 'winter', 'emberline',
+];
+
+const isCommonPassword = (password: string): boolean => {
+  const core = password.toLowerCase().replace(/[\d\W_]+$/u, '').replace(/^[\d\W_]+/u, '');
+  if (/^(\d)\1*$/.test(password) || /^(0123456789|1234567890|9876543210)/.test(password)) return true;
+  if (/^(.)\1+$/u.test(password)) return true;
+  return core.length === 0 || COMMON_PASSWORDS.includes(core);
+};
+
+export const PASSWORD_MIN_LENGTH = 10;
+
+/** Password rules: at least 10 characters, at most 128, not a common one. The e-mail check is in `withPasswordRules`. */
+export const PasswordSchema = z
+  .string({ error: 'Choose a password' })
+  .min(PASSWORD_MIN_LENGTH, `Use at least ${PASSWORD_MIN_LENGTH} characters`)
+  .max(128, 'Use at most 128 characters')
+  .refine((p) => !isCommonPassword(p), 'This password is too common: choose one that is harder to guess');
+
+/** Adds the rule "password is not the e-mail address" to a schema with `email` and `password`. */
+function withPasswordRules<T extends z.ZodObject<{ email: typeof EmailSchema; password: typeof PasswordSchema }>>(schema: T) {
+  return schema.superRefine((v, ctx) => {
+    const { email, password } = v as { email: string; password: string };
+    const lower = password.toLowerCase();
+    if (lower === email || lower === email.split('@')[0]) {
+      ctx.addIssue({ code: 'custom', path: ['password'], message: 'Your password must not be your e-mail address' });
+    }
+  });
+}
+
+export const NameSchema = z.string().trim().min(1, 'Enter your name').max(120, 'Use at most 120 characters');
+export const LocaleSchema = z.enum(['en', 'de']).default('en');
+
+export const OwnerSignUpSchema = withPasswordRules(
+  z.object({ name: NameSchema, email: EmailSchema, password: PasswordSchema, locale: LocaleSchema }),
+);
+export type OwnerSignUp = z.input<typeof OwnerSignUpSchema>;
+
+export const PartnerSignUpSchema = withPasswordRules(
+  z.object({
+    name: NameSchema,
+    email: EmailSchema,
+    password: PasswordSchema,
+    locale: LocaleSchema,
+    organisationName: z.string().trim().min(2, 'Enter the name of your business').max(120, 'Use at most 120 characters'),
+  }),
+);
+export type PartnerSignUp = z.input<typeof PartnerSignUpSchema>;
+
+export const SignInSchema = z.object({
+  email: EmailSchema,
+  password: z.string().min(1, 'Enter your password').max(128, 'Use at most 128 characters'),
+});
+export type SignIn = z.input<typeof SignInSchema>;
+
+export const TokenSchema = z.string().min(20, 'This link is incomplete').max(200, 'This link is not valid');
+export const VerifyEmailSchema = z.object({ token: TokenSchema });
+export const ForgotPasswordSchema = z.object({ email: EmailSchema, app: z.enum(['directory', 'console']).default('directory') });
+export const ResetPasswordSchema = z.object({ token: TokenSchema, password: PasswordSchema });
+export type ResetPassword = z.input<typeof ResetPasswordSchema>;
+
+export const MembershipSchema = z.object({
+  organisationId: IdSchema,
+  organisationName: z.string(),
+  organisationStatus: OrganisationStatusSchema,
+  role: MemberRoleSchema,
+});
+export type Membership = z.infer<typeof MembershipSchema>;
+
+export const MeSchema = z.object({
+  id: IdSchema,
+  email: z.string(),
+  name: z.string(),
+  locale: z.enum(['en', 'de']),
+  emailVerified: z.boolean(),
+  /** Platform-wide roles: `owner` and/or `network_admin`. Organisation roles are in memberships. */
+  roles: z.array(RoleSchema),
+  memberships: z.array(MembershipSchema),
+});
+export type Me = z.infer<typeof MeSchema>;
+
+export const SessionSchema = z.object({
+  accessToken: z.string(),
+  /** Seconds until the access token expires. */
+  expiresIn: z.number().int().positive(),
+  user: MeSchema,
+});
+export type Session = z.infer<typeof SessionSchema>;
+export const SessionResponseSchema = z.object({ data: SessionSchema });
+export const MeResponseSchema = z.object({ data: MeSchema });
+
+/** The same answer whatever happened, so nobody can learn which e-mail addresses have accounts. */
+export const AcceptedSchema = z.object({ data: z.object({ accepted: z.literal(true), message: z.string() }) });
+
+export const UpdateAccountSchema = z.object({ name: NameSchema.optional(), locale: z.enum(['en', 'de']).optional() });
+
+export const InviteSchema = z.object({ email: EmailSchema, role: MemberRoleSchema });
+export type Invite = z.input<typeof InviteSchema>;
+
+export const InvitationSchema = z.object({
+  id: IdSchema,
+  email: z.string(),
+  role: MemberRoleSchema,
+  invitedBy: z.string(),
+  createdAt: z.string(),
+  expiresAt: z.string(),
+});
+export type Invitation = z.infer<typeof InvitationSchema>;
+
+/** What someone who opens an invitation link sees before accepting. */
+export const InvitationPreviewSchema = z.object({
+  organisationName: z.string(),
+  role: MemberRoleSchema,
+  email: z.string(),
+  accountExists: z.boolean(),
+});
+export type InvitationPreview = z.infer<typeof InvitationPreviewSchema>;
+
+/** Accepting: a new account gives name and password; an existing one signs in with its password. */
+export const AcceptInvitationSchema = z.object({
+  token: TokenSchema,
+  name: NameSchema.optional(),
+  password: z.string().min(1, 'Enter a password').max(128, 'Use at most 128 characters'),
+});
+export type AcceptInvitation = z.input<typeof AcceptInvitationSchema>;
+
+export const TeamMemberSchema = z.object({
+  userId: IdSchema,
+  name: z.string(),
+  email: z.string(),
+  role: MemberRoleSchema,
+  joinedAt: z.string(),
+});
+export type TeamMember = z.infer<typeof TeamMemberSchema>;
+
+export const TeamSchema = z.object({ members: z.array(TeamMemberSchema), invitations: z.array(InvitationSchema) });
+export type Team = z.infer<typeof TeamSchema>;
+
+export const ChangeRoleSchema = z.object({ role: MemberRoleSchema });
+
+export const MAIL_STATUSES = ['pending', 'sent', 'failed'] as const;
+export const MailLogEntrySchema = z.object({
+  id: IdSchema,
+  to: z.string(),
+  subject: z.string(),
+  template: z.string(),
+  status: z.enum(MAIL_STATUSES),
+  attempts: z.number().int(),
+  lastError: z.string().nullable(),
+  createdAt: z.string(),
+  sentAt: z.string().nullable(),
+  text: z.string(),
+  html: z.string(),
+});
+export type MailLogEntry = z.infer<typeof MailLogEntrySchema>;
