@@ -1,24 +1,13 @@
 // Where the project keeps its local state, and the settings for the dev and test databases.
-import { randomBytes } from 'node:crypto';
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { localSecret } from '../../apps/api/src/lib/local-secrets';
+
+export { localSecret };
 
 export const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 export const varDir = path.join(root, 'var');
 export const bin = (name: string) => path.join(root, 'node_modules/.bin', name);
-
-/** A random secret generated once into the git-ignored var/ folder, never committed. */
-export function localSecret(name: string): string {
-  mkdirSync(varDir, { recursive: true });
-  const file = path.join(varDir, 'secrets.json');
-  const secrets: Record<string, string> = existsSync(file) ? JSON.parse(readFileSync(file, 'utf8')) : {};
-  if (!secrets[name]) {
-    secrets[name] = randomBytes(18).toString('base64url');
-    writeFileSync(file, JSON.stringify(secrets, null, 2) + '\n', { mode: 0o600 });
-  }
-  return secrets[name]!;
-}
 
 export interface DatabaseSettings {
   dir: string;

@@ -18,7 +18,7 @@ export default async function setup(project: TestProject) {
   const settings = testDatabase(project.name === 'e2e' ? 'emberline_e2e' : 'emberline_test');
   const db = await startMariaDb(settings.dir, settings.port);
   ensureDatabase(db, { ...settings, recreate: true });
-  await migrateAndSeed({ DB_HOST: '127.0.0.1', DB_PORT: settings.port, DB_NAME: settings.name, DB_USER: settings.user, DB_PASSWORD: settings.password, DB_POOL_SIZE: 2 });
+  await migrateAndSeed({ DB_HOST: '127.0.0.1', DB_PORT: settings.port, DB_NAME: settings.name, DB_USER: settings.user, DB_PASSWORD: settings.password, DB_POOL_SIZE: 2 }, { bcryptCost: 4 });
   project.provide('db', { ...settings, socket: db.socket, pid: db.pid });
   return async () => {
     if (db.startedHere) await db.stop();

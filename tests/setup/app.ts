@@ -5,6 +5,7 @@ import { createApp, type EmberlineApp } from '../../apps/api/src/app';
 import { loadConfig } from '../../apps/api/src/config';
 import { createDataSource } from '../../apps/api/src/db/data-source';
 import { createLogger } from '../../apps/api/src/lib/logger';
+import type { LimitSettings } from '../../apps/api/src/middleware/rate-limits';
 import { dbEnv } from '../../scripts/lib/project';
 
 export interface TestApp {
@@ -13,10 +14,23 @@ export interface TestApp {
   close(): Promise<void>;
 }
 
-export async function createTestApp(overrides: Record<string, string> = {}): Promise<TestApp> {
+export const TEST_JWT_SECRET = 'test-secret-for-emberline-api-tests-0123456789';
+
+export async function createTestApp(overrides: Record<string, string> = {}, o: { limits?: LimitSettings } = {}): Promise<TestApp> {
   const db = inject('db');
-  const config = loadConfig({ ...dbEnv(db), NODE_ENV: 'test', LOG_LEVEL: 'silent', SERVE_APPS: 'false', DB_POOL_SIZE: '4', ...overrides });
+  const config = loadConfig({
+    ...dbEnv(db),
+    NODE_ENV: 'test',
+    LOG_LEVEL: 'silent',
+    SERVE_APPS: 'false',
+    DB_POOL_SIZE: '4',
+    // cost 4 keeps the suite fast; a test checks that the default is 12
+    BCRYPT_COST: '4',
+    PUBLIC_URL: 'http://emberline.test',
+    RUN_SCHEDULER: 'false',
+    ...overrides,
+  });
   const dataSource = await createDataSource(config).initialize();
-  const app = createApp({ config, dataSource, logger: createLogger(config.LOG_LEVEL), version: 'test' });
+  const app = createApp({ config, dataSource, logger: createLogger(config.LOG_LEVEL), version: 'test', jwtSecret: TEST_JWT_SECRET, limits: o.limits });
   return { app, dataSource, close: () => dataSource.destroy() };
 }

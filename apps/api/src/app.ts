@@ -3,6 +3,7 @@
 import { randomUUID } from 'node:crypto';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
+import cookieParser from 'cookie-parser';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
@@ -12,15 +13,32 @@ import type { Config } from './config';
 import type { Logger } from './lib/logger';
 import { ApiRouter } from './lib/api-router';
 import { apiNotFound, problemDetails } from './middleware/problem-details';
+import { createGuards, type Guards } from './middleware/auth';
+import { createLimiters, type LimitSettings, type Limiters } from './middleware/rate-limits';
+import type { AuthSettings } from './services/auth.service';
+import { registerAccountRoutes } from './routes/account.routes';
+import { registerAdminRoutes } from './routes/admin.routes';
+import { registerAuthRoutes } from './routes/auth.routes';
 import { registerCatalogueRoutes } from './routes/catalogue.routes';
+import { registerTeamRoutes } from './routes/team.routes';
 import { registerHealthRoutes } from './routes/health.routes';
 import { docsRouter } from './routes/docs.routes';
 
 export interface AppDeps {
-  config: Pick<Config, 'SERVE_APPS' | 'APPS_DIR' | 'TRUST_PROXY' | 'publicUrl'>;
+  config: Config;
   dataSource: DataSource;
   logger: Logger;
   version: string;
+  /** Signs access tokens; from JWT_SECRET, or generated into var/ in development. */
+  jwtSecret: string;
+  limits?: LimitSettings;
+}
+
+/** What route modules and controllers get: the dependencies plus what createApp builds from them. */
+export interface AppContext extends AppDeps {
+  authSettings: AuthSettings;
+  limiters: Limiters;
+  guards: Guards;
 }
 
 export interface EmberlineApp extends Express {
@@ -81,10 +99,27 @@ export function createApp(deps: AppDeps): EmberlineApp {
   const registry = new OpenAPIRegistry();
   app.openApiRegistry = registry;
 
-  const api = new ApiRouter(registry, '/api');
+  const context: AppContext = {
+    ...deps,
+    authSettings: {
+      jwtSecret: deps.jwtSecret,
+      accessTtlSeconds: deps.config.ACCESS_TOKEN_TTL_SECONDS,
+      refreshTtlDays: deps.config.REFRESH_TOKEN_TTL_DAYS,
+      bcryptCost: deps.config.BCRYPT_COST,
+      publicUrl: deps.config.publicUrl,
+    },
+    limiters: createLimiters(deps.limits),
+    guards: createGuards(deps.dataSource, deps.jwtSecret),
+  };
+  const api = new ApiRouter(registry, '/api', context.guards);
   api.router.use(express.json({ limit: '1mb' }));
-  registerHealthRoutes(api, deps);
-  registerCatalogueRoutes(api, deps);
+  api.router.use(cookieParser());
+  registerHealthRoutes(api, context);
+  registerCatalogueRoutes(api, context);
+  registerAuthRoutes(api, context);
+  registerAccountRoutes(api, context);
+  registerTeamRoutes(api, context);
+  registerAdminRoutes(api, context);
   api.router.use(docsRouter(registry, deps.version));
   api.router.use(apiNotFound);
 

@@ -6,6 +6,7 @@ import { createDataSource, pendingMigrations } from './db/data-source';
 import { createLogger } from './lib/logger';
 import { createApp } from './app';
 import { VERSION } from './version';
+import { localSecret } from './lib/local-secrets';
 
 function fail(message: string, exitCode: number): never {
   process.stderr.write(`\n✖ ${message}\n\n`);
@@ -43,7 +44,8 @@ async function main(): Promise<void> {
   const pending = await pendingMigrations(dataSource);
   if (pending.length) logger.warn({ pending }, 'migrations have not run yet: run "npm run migrate"');
 
-  const app = createApp({ config, dataSource, logger, version: VERSION });
+  const jwtSecret = config.JWT_SECRET ?? localSecret('jwtSecret', 48);
+  const app = createApp({ config, dataSource, logger, version: VERSION, jwtSecret });
   const server: Server = app.listen(config.PORT, config.HOST);
   server.on('error', (err: NodeJS.ErrnoException) => {
     if (err.code === 'EADDRINUSE') fail(`Port ${config.PORT} on ${config.HOST} is already in use. Stop the other process or set PORT.`, 4);

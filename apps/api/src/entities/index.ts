@@ -1,7 +1,35 @@
 // Every entity the data source knows, in one list.
+import { AuditLogEntity } from './audit-log.entity';
 import { CapabilityEntity } from './capability.entity';
-import { ServiceTypeEntity } from './service-type.entity';
 import { MailOutboxEntity } from './mail-outbox.entity';
+import { MembershipEntity } from './membership.entity';
+import { OrganisationEntity } from './organisation.entity';
+import { ServiceTypeEntity } from './service-type.entity';
+import { InvitationEntity, OneTimeTokenEntity, RefreshTokenEntity, type OneTimePurpose } from './tokens.entity';
+import { UserAccountEntity } from './user-account.entity';
 
-export { CapabilityEntity, ServiceTypeEntity, MailOutboxEntity };
-export const entities = [CapabilityEntity, ServiceTypeEntity, MailOutboxEntity];
+export type { OneTimePurpose };
+export {
+  AuditLogEntity,
+  CapabilityEntity,
+  InvitationEntity,
+  MailOutboxEntity,
+  MembershipEntity,
+  OneTimeTokenEntity,
+  OrganisationEntity,
+  RefreshTokenEntity,
+  ServiceTypeEntity,
+  UserAccountEntity,
+};
+export const entities = [
+  AuditLogEntity,
+  CapabilityEntity,
+  InvitationEntity,
+  MailOutboxEntity,
+  MembershipEntity,
+  OneTimeTokenEntity,
+  OrganisationEntity,
+  RefreshTokenEntity,
+  ServiceTypeEntity,
+  UserAccountEntity,
+];

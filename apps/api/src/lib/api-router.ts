@@ -5,7 +5,10 @@ import type { OpenAPIRegistry, RouteConfig } from '@asteasolutions/zod-to-openap
 type RouteParameter = NonNullable<RouteConfig['request']>['query'];
 import { z } from 'zod';
 import { ProblemDetailsSchema, type FieldError } from '@emberline/domain';
+import type { Role } from '@emberline/domain';
 import { ValidationFailed } from './errors';
+import { ANONYMOUS, type Actor } from './context';
+import type { Guards } from '../middleware/auth';
 
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 type AnyObject = z.ZodObject;
@@ -23,8 +26,14 @@ export interface RouteSpec<Q extends AnyObject, P extends AnyObject, B extends z
   /** Schema of the success body, `{ data, meta? }`. */
   response: R;
   status?: 200 | 201 | 202;
-  /** Extra middleware (auth, rate limits) run before validation. */
+  /** Rate limiters and other middleware, run first. */
   before?: RequestHandler[];
+  /** Needs a signed-in account (bearer access token). */
+  auth?: boolean;
+  /** An /orgs/:orgId route: the caller must be a member (or a network admin); others get 404. */
+  org?: boolean;
+  /** The caller needs one of these roles (platform roles, or the role held in the organisation). */
+  roles?: Role[];
   /** Problem statuses this route can answer besides 400 and 500. */
   problems?: number[];
 }
@@ -35,6 +44,7 @@ export interface RouteInput<Q, P, B> {
   body: B;
   req: Request;
   res: Response;
+  actor: Actor;
 }
 
 export function toFieldErrors(error: z.ZodError, prefix?: string): FieldError[] {
@@ -62,7 +72,10 @@ export class ApiRouter {
     readonly registry: OpenAPIRegistry,
     /** Where the router is mounted, used for OpenAPI paths, e.g. "/api". */
     readonly mountPath: string,
-  ) {}
+    private readonly guards: Guards,
+  ) {
+    registry.registerComponent('securitySchemes', 'bearerAuth', { type: 'http', scheme: 'bearer', bearerFormat: 'JWT' });
+  }
 
   route<Q extends AnyObject, P extends AnyObject, B extends z.ZodType, R extends z.ZodType>(
     spec: RouteSpec<Q, P, B, R>,
@@ -84,22 +97,31 @@ export class ApiRouter {
       const query = take(spec.query, req.query, 'query');
       const body = take(spec.body, req.body, 'body');
       if (errors.length) return next(ValidationFailed('Please correct the highlighted fields.', errors));
-      const data = await handler({ query, params, body, req, res } as RouteInput<z.infer<Q>, z.infer<P>, z.infer<B>>);
+      const actor = req.actor ?? ANONYMOUS;
+      const data = await handler({ query, params, body, req, res, actor } as RouteInput<z.infer<Q>, z.infer<P>, z.infer<B>>);
       if (res.headersSent) return;
       // a handler may set its own status (e.g. 503 from health); otherwise use the declared one
       if (res.statusCode === 200 && spec.status) res.status(spec.status);
       res.json(data);
     };
-    this.router[spec.method](spec.path, ...(spec.before ?? []), validateAndRun);
+    const needsAuth = spec.auth || spec.org || !!spec.roles;
+    const chain: RequestHandler[] = [
+      ...(spec.before ?? []),
+      ...(needsAuth ? [this.guards.authenticate] : []),
+      ...(spec.org ? [this.guards.orgScope] : []),
+      ...(spec.roles ? [this.guards.requireRoles(spec.roles)] : []),
+    ];
+    this.router[spec.method](spec.path, ...chain, validateAndRun);
   }
 
   private document(spec: RouteSpec<AnyObject, AnyObject, z.ZodType, z.ZodType>): void {
     const openApiPath = (this.mountPath + spec.path).replace(/:([A-Za-z0-9_]+)/g, '{$1}');
-    const problems = new Set([400, 500, ...(spec.problems ?? [])]);
+    const needsAuth = spec.auth || spec.org || !!spec.roles;
+    const problems = new Set([400, 500, ...(needsAuth ? [401] : []), ...(spec.roles ? [403] : []), ...(spec.org ? [404] : []), ...(spec.before?.length ? [429] : []), ...(spec.problems ?? [])]);
     const responses: RouteConfig['responses'] = {
       [spec.status ?? 200]: { description: 'Success', content: { 'application/json': { schema: spec.response } } },
     };
-    for (const status of [...problems].sort()) {
+    for (const status of [...problems].sort((a, b) => a - b)) {
       responses[status] = { description: problemDescriptions[status] ?? 'Problem', content: problemContent };
     }
     this.registry.registerPath({
@@ -108,6 +130,7 @@ export class ApiRouter {
       summary: spec.summary,
       description: spec.description,
       tags: spec.tags,
+      security: needsAuth ? [{ bearerAuth: [] }] : undefined,
       request: {
         query: spec.query as RouteParameter,
         params: spec.params as RouteParameter,

@@ -3,6 +3,7 @@
 import type { EntityManager } from 'typeorm';
 import { CapabilityEntity, ServiceTypeEntity } from '../../entities';
 import { CAPABILITIES, SERVICE_TYPES } from './catalogue-data';
+import { seedDemo, type DemoSeedReport } from './demo';
 
 export interface SeedReport {
   capabilitiesAdded: number;
@@ -36,6 +37,13 @@ export async function seedCatalogue(manager: EntityManager): Promise<SeedReport>
   return report;
 }
 
-export async function runSeed(manager: EntityManager): Promise<SeedReport> {
-  return manager.transaction((tx) => seedCatalogue(tx));
+export interface FullSeedReport extends SeedReport, DemoSeedReport {}
+
+/** The catalogue always; the demo scenario unless `demo` is false (production). */
+export async function runSeed(manager: EntityManager, o: { demo?: boolean; bcryptCost?: number } = {}): Promise<FullSeedReport> {
+  return manager.transaction(async (tx) => {
+    const catalogue = await seedCatalogue(tx);
+    const demo = o.demo === false ? { usersAdded: 0, organisationsAdded: 0 } : await seedDemo(tx, o.bcryptCost ?? 12);
+    return { ...catalogue, ...demo };
+  });
 }

@@ -1,0 +1,83 @@
+// Sign-up, sign-in, session refresh and sign-out, verification, password reset and invitations.
+// Mutations run in one transaction each, so an e-mail is queued only with the change it reports.
+import type { Request, Response } from 'express';
+import { PasswordSchema, type AcceptInvitation, type OwnerSignUp, type PartnerSignUp } from '@emberline/domain';
+import type { AppContext } from '../app';
+import type { Actor } from '../lib/context';
+import { ValidationFailed } from '../lib/errors';
+import * as auth from '../services/auth.service';
+import * as sessions from '../services/session.service';
+import * as team from '../services/team.service';
+
+export const REFRESH_COOKIE = 'emberline_refresh';
+const REFRESH_PATH = '/api/auth';
+
+export function authController({ dataSource, authSettings }: AppContext) {
+  const secure = authSettings.publicUrl.startsWith('https:');
+  const tx = <T>(actor: Actor, fn: (ctx: { manager: import('typeorm').EntityManager; actor: Actor }) => Promise<T>) =>
+    dataSource.transaction((manager) => fn({ manager, actor }));
+
+  function respondWithSession(res: Response, session: sessions.IssuedSession) {
+    res.cookie(REFRESH_COOKIE, session.refreshToken, { httpOnly: true, sameSite: 'strict', secure, path: REFRESH_PATH, expires: session.refreshExpiresAt });
+    res.set('cache-control', 'no-store');
+    const { refreshToken: _hidden, refreshExpiresAt: _expires, ...body } = session;
+    return { data: body };
+  }
+  const clearCookie = (res: Response) => res.clearCookie(REFRESH_COOKIE, { httpOnly: true, sameSite: 'strict', secure, path: REFRESH_PATH });
+  const cookieOf = (req: Request): string | undefined => (req.cookies as Record<string, string> | undefined)?.[REFRESH_COOKIE];
+  const accepted = (message: string) => ({ data: { accepted: true as const, message } });
+
+  return {
+    signUpOwner: async ({ body, actor }: { body: OwnerSignUp & { email: string; locale: 'en' | 'de' }; actor: Actor }) => {
+      await tx(actor, (ctx) => auth.signUpOwner(ctx, body, authSettings));
+      return accepted(auth.ACCEPTED_SIGN_UP);
+    },
+    signUpPartner: async ({ body, actor }: { body: PartnerSignUp & { email: string; locale: 'en' | 'de' }; actor: Actor }) => {
+      await tx(actor, (ctx) => auth.signUpPartner(ctx, body, authSettings));
+      return accepted(auth.ACCEPTED_SIGN_UP);
+    },
+    resendVerification: async ({ body, actor }: { body: { email: string; app: 'directory' | 'console' }; actor: Actor }) => {
+      await tx(actor, (ctx) => auth.resendVerification(ctx, body.email, body.app, authSettings));
+      return accepted(auth.ACCEPTED_RESEND);
+    },
+    signIn: async ({ body, res, actor }: { body: { email: string; password: string }; res: Response; actor: Actor }) => {
+      // lock-out bookkeeping must persist even though sign-in fails, so this runs without a wrapping transaction
+      const session = await auth.signIn({ manager: dataSource.manager, actor }, body, authSettings);
+      return respondWithSession(res, session);
+    },
+    refresh: async ({ req, res, actor }: { req: Request; res: Response; actor: Actor }) => {
+      const outcome = await tx(actor, (ctx) => sessions.rotateRefreshToken(ctx.manager, cookieOf(req), authSettings));
+      if ('session' in outcome) return respondWithSession(res, outcome.session);
+      if (outcome.reusedFamily) await sessions.revokeFamily(dataSource.manager, outcome.reusedFamily);
+      clearCookie(res);
+      throw outcome.error;
+    },
+    signOut: async ({ req, res }: { req: Request; res: Response }) => {
+      await sessions.revokeRefreshToken(dataSource.manager, cookieOf(req));
+      clearCookie(res);
+      return accepted('You are signed out.');
+    },
+    verifyEmail: async ({ body, res, actor }: { body: { token: string }; res: Response; actor: Actor }) =>
+      respondWithSession(res, await tx(actor, (ctx) => auth.verifyEmail(ctx, body.token, authSettings))),
+    forgotPassword: async ({ body, actor }: { body: { email: string; app: 'directory' | 'console' }; actor: Actor }) => {
+      await tx(actor, (ctx) => auth.forgotPassword(ctx, body.email, body.app, authSettings));
+      return accepted(auth.ACCEPTED_RESET);
+    },
+    resetPassword: async ({ body, actor }: { body: { token: string; password: string }; actor: Actor }) => {
+      await tx(actor, (ctx) => auth.resetPassword(ctx, body, authSettings));
+      return accepted('Your password has been changed. Please sign in with the new one.');
+    },
+    previewInvitation: async ({ params }: { params: { token: string } }) => ({ data: await team.previewInvitation(dataSource.manager, params.token) }),
+    acceptInvitation: async ({ body, res, actor }: { body: AcceptInvitation; res: Response; actor: Actor }) => {
+      const validateNewPassword = (email: string, password: string, name?: string) => {
+        const errors = [];
+        if (!name?.trim()) errors.push({ path: 'name', message: 'Enter your name' });
+        const parsed = PasswordSchema.safeParse(password);
+        if (!parsed.success) errors.push(...parsed.error.issues.map((i) => ({ path: 'password', message: i.message })));
+        else if (password.toLowerCase() === email || password.toLowerCase() === email.split('@')[0]) errors.push({ path: 'password', message: 'Your password must not be your e-mail address' });
+        if (errors.length) throw ValidationFailed('Please correct the highlighted fields.', errors);
+      };
+      return respondWithSession(res, await tx(actor, (ctx) => team.acceptInvitation(ctx, body, authSettings, validateNewPassword)));
+    },
+  };
+}

@@ -1,0 +1,51 @@
+// Network-admin routes.
+import { z } from 'zod';
+import { IdSchema, MAIL_STATUSES, MailLogEntrySchema } from '@emberline/domain';
+import type { AppContext } from '../app';
+import type { ApiRouter } from '../lib/api-router';
+import { adminController } from '../controllers/admin.controller';
+
+const AuditEntrySchema = z.object({
+  id: z.string(),
+  actorUserId: z.string().nullable(),
+  action: z.string(),
+  entityType: z.string(),
+  entityId: z.string().nullable(),
+  organisationId: z.string().nullable(),
+  before: z.unknown(),
+  after: z.unknown(),
+  createdAt: z.string(),
+});
+
+export function registerAdminRoutes(api: ApiRouter, app: AppContext): void {
+  const c = adminController(app);
+  const tags = ['Network admin'];
+  api.route(
+    {
+      method: 'get',
+      path: '/admin/mail-log',
+      summary: 'E-mails sent, waiting or given up on',
+      tags,
+      roles: ['network_admin'],
+      query: z.object({
+        status: z.enum(MAIL_STATUSES).optional(),
+        to: z.string().max(254).optional(),
+        limit: z.coerce.number().int().min(1).max(500).default(100),
+      }),
+      response: z.object({ data: z.array(MailLogEntrySchema) }),
+    },
+    c.listMail,
+  );
+  api.route(
+    {
+      method: 'get',
+      path: '/admin/audit-log',
+      summary: 'Who did what, when, with before and after',
+      tags,
+      roles: ['network_admin'],
+      query: z.object({ organisationId: IdSchema.optional(), limit: z.coerce.number().int().min(1).max(500).default(100) }),
+      response: z.object({ data: z.array(AuditEntrySchema) }),
+    },
+    c.listAudit,
+  );
+}

@@ -1,0 +1,43 @@
+// Network-admin views: the e-mail log and the audit log.
+import type { MailLogEntry } from '@emberline/domain';
+import { AuditLogEntity, MailOutboxEntity } from '../entities';
+import type { ServiceContext } from '../lib/context';
+
+export async function listMail(ctx: ServiceContext, filter: { status?: 'pending' | 'sent' | 'failed'; to?: string; limit: number }): Promise<MailLogEntry[]> {
+  const qb = ctx.manager.getRepository(MailOutboxEntity).createQueryBuilder('m').orderBy('m.created_at', 'DESC').take(filter.limit);
+  if (filter.status) qb.andWhere('m.status = :status', { status: filter.status });
+  if (filter.to) qb.andWhere('m.to_address LIKE :to', { to: `%${filter.to.replace(/[%_\\]/g, '\\$&')}%` });
+  const rows = await qb.getMany();
+  return rows.map((m) => ({
+    id: m.id,
+    to: m.to,
+    subject: m.subject,
+    template: m.template,
+    status: m.status,
+    attempts: m.attempts,
+    lastError: m.lastError,
+    createdAt: m.createdAt.toISOString(),
+    sentAt: m.sentAt?.toISOString() ?? null,
+    text: m.text,
+    html: m.html,
+  }));
+}
+
+export async function listAudit(ctx: ServiceContext, filter: { organisationId?: string; limit: number }) {
+  const rows = await ctx.manager.getRepository(AuditLogEntity).find({
+    where: filter.organisationId ? { organisationId: filter.organisationId } : {},
+    order: { id: 'DESC' },
+    take: filter.limit,
+  });
+  return rows.map((r) => ({
+    id: String(r.id),
+    actorUserId: r.actorUserId,
+    action: r.action,
+    entityType: r.entityType,
+    entityId: r.entityId,
+    organisationId: r.organisationId,
+    before: r.before ?? null,
+    after: r.after ?? null,
+    createdAt: r.createdAt.toISOString(),
+  }));
+}
