@@ -9,7 +9,7 @@ import { fileURLToPath } from 'node:url';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const command = process.argv[2];
-const scripts = { start: 'start.ts', test: 'test.ts', dev: 'dev.ts', bench: 'bench.ts', migrate: 'db.ts', seed: 'db.ts' };
+const scripts = { start: 'start.ts', test: 'test.ts', dev: 'dev.ts', bench: 'bench.ts', migrate: 'db.ts', seed: 'db.ts', 'admin:create': 'admin-create.ts' };
 if (!scripts[command]) {
   console.error(`Unknown command "${command}". Use one of: ${Object.keys(scripts).join(', ')}`);
   process.exit(2);

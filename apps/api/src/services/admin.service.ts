@@ -1,6 +1,9 @@
 // Network-admin views: the e-mail log and the audit log.
 import type { MailLogEntry } from '@emberline/domain';
-import { AuditLogEntity, MailOutboxEntity } from '../entities';
+import { AuditLogEntity, MailOutboxEntity, UserAccountEntity } from '../entities';
+import { newId } from '../lib/secure-token';
+import { audit } from './audit.service';
+import { hashPassword } from './auth.service';
 import type { ServiceContext } from '../lib/context';
 
 export async function listMail(ctx: ServiceContext, filter: { status?: 'pending' | 'sent' | 'failed'; to?: string; limit: number }): Promise<MailLogEntry[]> {
@@ -40,4 +43,33 @@ export async function listAudit(ctx: ServiceContext, filter: { organisationId?: 
     after: r.after ?? null,
     createdAt: r.createdAt.toISOString(),
   }));
+}
+
+/** Creates a network admin, or makes an existing account one (keeping its password). */
+export async function createNetworkAdmin(
+  ctx: ServiceContext,
+  input: { email: string; name: string; password: string; bcryptCost: number },
+): Promise<'created' | 'promoted'> {
+  const users = ctx.manager.getRepository(UserAccountEntity);
+  const existing = await users.findOneBy({ email: input.email });
+  if (existing) {
+    await users.update({ id: existing.id }, { isNetworkAdmin: true, emailVerifiedAt: existing.emailVerifiedAt ?? new Date() });
+    await audit(ctx, { action: 'user.grant-network-admin', entityType: 'user', entityId: existing.id, before: { isNetworkAdmin: existing.isNetworkAdmin }, after: { isNetworkAdmin: true } });
+    return 'promoted';
+  }
+  const id = newId();
+  await users.insert({
+    id,
+    email: input.email,
+    name: input.name,
+    locale: 'en',
+    passwordHash: await hashPassword(input.password, input.bcryptCost),
+    isOwner: false,
+    isNetworkAdmin: true,
+    emailVerifiedAt: new Date(),
+    failedSignIns: 0,
+    lockedUntil: null,
+  });
+  await audit(ctx, { action: 'user.create-network-admin', entityType: 'user', entityId: id, after: { email: input.email, name: input.name } });
+  return 'created';
 }
