@@ -1,0 +1,8 @@
+// The Console's configuration, read from import.meta.env once.
+export const appConfig = Object.freeze({
+  appName: (import.meta.env.VITE_CONSOLE_NAME as string | undefined) ?? 'Emberline Console',
+  /** Same origin: the API is served under /api next to the app (proxied in dev). */
+  apiBaseUrl: (import.meta.env.VITE_API_BASE_URL as string | undefined) ?? '',
+  base: '/console/',
+  directoryUrl: '/',
+});

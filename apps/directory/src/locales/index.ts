@@ -1,0 +1,14 @@
+// vue-i18n for the Directory: shared strings plus the app's own; German slots in beside English.
+import { createI18n } from 'vue-i18n';
+import { sharedEn } from '@emberline/ui';
+import en from './en';
+
+export const messages = { en: { ...sharedEn, ...en } };
+export type MessageSchema = (typeof messages)['en'];
+
+export const i18n = createI18n({
+  legacy: false,
+  locale: 'en',
+  fallbackLocale: 'en',
+  messages,
+});

@@ -1,0 +1,27 @@
+// The Directory's router: route modules per feature, lazy views, one guard.
+import { createRouter, createWebHistory, type RouterHistory } from 'vue-router';
+import './types';
+import { appConfig } from '@/app-config';
+import { i18n } from '@/locales';
+import { installGuards } from './guard';
+import { authRoutes } from './routes/auth';
+import { homeRoutes } from './routes/home';
+import { notFoundRoutes } from './routes/not-found';
+import { safetyRoutes } from './routes/safety';
+import { searchRoutes } from './routes/search';
+
+export const routes = [...homeRoutes, ...searchRoutes, ...safetyRoutes, ...authRoutes, ...notFoundRoutes];
+
+export function createAppRouter(history: RouterHistory = createWebHistory('/')) {
+  const router = createRouter({
+    history,
+    routes,
+    scrollBehavior(to, _from, saved) {
+      if (saved) return saved;
+      if (to.hash) return { el: to.hash, top: 24, behavior: 'smooth' };
+      return { top: 0 };
+    },
+  });
+  installGuards(router, (key) => i18n.global.t(key), appConfig.appName);
+  return router;
+}

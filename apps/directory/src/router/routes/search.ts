@@ -1,0 +1,5 @@
+import type { RouteRecordRaw } from 'vue-router';
+
+export const searchRoutes: RouteRecordRaw[] = [
+  { path: '/search', name: 'search', component: () => import('@/views/search/index.vue'), meta: { title: 'search.metaTitle' } },
+];
