@@ -1,21 +1,9 @@
 // Network-admin routes.
 import { z } from 'zod';
-import { IdSchema, MAIL_STATUSES, MailLogEntrySchema } from '@emberline/domain';
+import { AuditEntrySchema, IdSchema, MAIL_STATUSES, MailLogEntrySchema } from '@emberline/domain';
 import type { AppContext } from '../app';
 import type { ApiRouter } from '../lib/api-router';
 import { adminController } from '../controllers/admin.controller';
-
-const AuditEntrySchema = z.object({
-  id: z.string(),
-  actorUserId: z.string().nullable(),
-  action: z.string(),
-  entityType: z.string(),
-  entityId: z.string().nullable(),
-  organisationId: z.string().nullable(),
-  before: z.unknown(),
-  after: z.unknown(),
-  createdAt: z.string(),
-});
 
 export function registerAdminRoutes(api: ApiRouter, app: AppContext): void {
   const c = adminController(app);

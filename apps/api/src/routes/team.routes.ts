@@ -1,20 +1,11 @@
 // Organisation-scoped team routes under /orgs/:orgId.
 import { z } from 'zod';
-import { ChangeRoleSchema, IdSchema, InvitationSchema, InviteSchema, OrganisationStatusSchema, TeamSchema } from '@emberline/domain';
+import { ChangeRoleSchema, IdSchema, InvitationSchema, InviteSchema, OrganisationSummarySchema, TeamSchema } from '@emberline/domain';
 import type { AppContext } from '../app';
 import type { ApiRouter } from '../lib/api-router';
 import { teamController } from '../controllers/team.controller';
 
 const OrgParams = z.object({ orgId: IdSchema });
-const OrganisationSummarySchema = z.object({
-  id: IdSchema,
-  name: z.string(),
-  status: OrganisationStatusSchema,
-  statusReason: z.string().nullable(),
-  members: z.number().int(),
-  createdAt: z.string(),
-});
-
 export function registerTeamRoutes(api: ApiRouter, app: AppContext): void {
   const c = teamController(app);
   const tags = ['Team'];

@@ -188,3 +188,26 @@ export const MailLogEntrySchema = z.object({
   html: z.string(),
 });
 export type MailLogEntry = z.infer<typeof MailLogEntrySchema>;
+
+export const OrganisationSummarySchema = z.object({
+  id: IdSchema,
+  name: z.string(),
+  status: OrganisationStatusSchema,
+  statusReason: z.string().nullable(),
+  members: z.number().int(),
+  createdAt: z.string(),
+});
+export type OrganisationSummary = z.infer<typeof OrganisationSummarySchema>;
+
+export const AuditEntrySchema = z.object({
+  id: z.string(),
+  actorUserId: z.string().nullable(),
+  action: z.string(),
+  entityType: z.string(),
+  entityId: z.string().nullable(),
+  organisationId: z.string().nullable(),
+  before: z.unknown(),
+  after: z.unknown(),
+  createdAt: z.string(),
+});
+export type AuditEntry = z.infer<typeof AuditEntrySchema>;
