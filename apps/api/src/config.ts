@@ -25,6 +25,23 @@ export const EnvSchema = z.object({
   SERVE_APPS: flag(true),
   APPS_DIR: z.string().default('dist').transform((dir) => path.resolve(projectRoot, dir)),
   TRUST_PROXY: flag(false),
+  /** Signs access tokens (HS256). Required in production; in development generated once into var/. */
+  JWT_SECRET: z.string().min(32, 'must be at least 32 characters').optional(),
+  ACCESS_TOKEN_TTL_SECONDS: z.coerce.number().int().min(60).max(3600).default(900),
+  REFRESH_TOKEN_TTL_DAYS: z.coerce.number().int().min(1).max(90).default(30),
+  BCRYPT_COST: z.coerce.number().int().min(4).max(15).default(12),
+  /** Where mail goes: the local capture server in development and tests, the real relay in production. */
+  SMTP_URL: z.url({ protocol: /^smtps?$/, error: 'must be an smtp:// or smtps:// URL' }).default('smtp://127.0.0.1:2525'),
+  MAIL_FROM: z.string().trim().min(3).max(254).default('Emberline <no-reply@emberline.invalid>'),
+  /** HTTP API of the mail capture server (development and tests only), e.g. http://127.0.0.1:2580. */
+  MAIL_CAPTURE_URL: z.url({ protocol: /^https?$/ }).optional(),
+  /** Runs the scheduled jobs (outbox sender) in this process; the jobs lock, so several instances may. */
+  RUN_SCHEDULER: flag(true),
+  MAIL_INTERVAL_SECONDS: z.coerce.number().int().min(1).max(3600).default(5),
+}).superRefine((c, ctx) => {
+  if (c.NODE_ENV === 'production' && !c.JWT_SECRET) ctx.addIssue({ code: 'custom', path: ['JWT_SECRET'], message: 'is required in production' });
+  // the cost may only go below 12 to keep the test suite fast
+  if (c.NODE_ENV !== 'test' && c.BCRYPT_COST < 12) ctx.addIssue({ code: 'custom', path: ['BCRYPT_COST'], message: 'must be at least 12 outside tests' });
 });
 
 export type Config = Readonly<z.infer<typeof EnvSchema>> & { readonly publicUrl: string };

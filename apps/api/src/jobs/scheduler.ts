@@ -1,0 +1,64 @@
+// Runs the scheduled jobs with Bree, each run in its own worker thread: today the mail sender.
+import { fileURLToPath } from 'node:url';
+import Bree from 'bree';
+import { loadConfig } from '../config';
+import type { Logger } from '../lib/logger';
+
+/** Bree loads only .js/.mjs, so every job starts in this runner, which imports `<job name>.ts`. */
+const RUNNER = fileURLToPath(new URL('./run-ts-job.mjs', import.meta.url));
+/** A run that hangs (a stuck socket) is ended so the next interval can start a fresh one. */
+const MAX_RUN_MS = 5 * 60_000;
+
+export interface SchedulerOptions {
+  /** The environment the jobs read their configuration from (`loadConfig`), usually process.env. */
+  env: NodeJS.ProcessEnv;
+  logger: Logger;
+}
+
+export interface Scheduler {
+  start(): Promise<void>;
+  /** Stops the timers and waits for a running job to finish its batch. */
+  stop(): Promise<void>;
+}
+
+const describe = (value: unknown) => (value instanceof Error ? value.message : String(value));
+
+export function createScheduler({ env, logger }: SchedulerOptions): Scheduler {
+  // a bad setting should fail here, once, not in every worker every few seconds
+  const config = loadConfig(env);
+  const log = logger.child({ component: 'scheduler' });
+  const workerEnv = Object.fromEntries(Object.entries(env).filter((e): e is [string, string] => typeof e[1] === 'string'));
+
+  const bree = new Bree({
+    root: false,
+    // Bree reports every worker start and finish; that is debug detail at our interval
+    logger: {
+      info: (message: unknown) => log.debug(describe(message)),
+      // "already running" only means a run outlasted the interval; the next tick catches up
+      warn: (message: unknown) => (/already running/.test(describe(message)) ? log.debug(describe(message)) : log.warn(describe(message))),
+      error: (message: unknown) => log.error(describe(message)),
+    },
+    // a failing job (database down, bad SMTP URL) is logged; the next interval tries again
+    errorHandler: (error, data) => log.error({ job: data.name, error: describe(error) }, 'scheduled job failed'),
+    jobs: [
+      {
+        name: 'send-mail',
+        path: RUNNER,
+        timeout: 0,
+        interval: config.MAIL_INTERVAL_SECONDS * 1000,
+        closeWorkerAfterMs: MAX_RUN_MS,
+        worker: { env: workerEnv },
+      },
+    ],
+  });
+
+  return {
+    async start() {
+      await bree.start();
+      log.info({ jobs: ['send-mail'], mailIntervalSeconds: config.MAIL_INTERVAL_SECONDS }, 'scheduler started');
+    },
+    async stop() {
+      await bree.stop();
+    },
+  };
+}

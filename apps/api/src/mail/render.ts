@@ -1,0 +1,176 @@
+// Renders an e-mail from the message catalogue into a plain-text and an HTML part.
+import en, { type MailMessages, type TemplateMessages } from './messages/en';
+import de from './messages/de';
+
+/** What each template needs; links must be absolute http(s) URLs. */
+export interface MailTemplateData {
+  'verify-email': { name: string; link: string };
+  'reset-password': { name: string; link: string; minutes: number };
+  invitation: { inviterName: string; organisationName: string; role: string; link: string; days: number };
+  'account-locked': { name: string; minutes: number; resetLink: string };
+  'password-changed': { name: string };
+}
+export type MailTemplate = keyof MailTemplateData;
+
+export const MAIL_LOCALES = ['en', 'de'] as const;
+export type MailLocale = (typeof MAIL_LOCALES)[number];
+
+export interface RenderedMail {
+  subject: string;
+  text: string;
+  html: string;
+}
+
+const catalogues: Record<MailLocale, MailMessages> = { en, de };
+
+/** The field whose URL the call-to-action button opens; templates without one have no button. */
+export const ACTION_LINK: { readonly [T in MailTemplate]: (keyof MailTemplateData[T] & string) | null } = {
+  'verify-email': 'link',
+  'reset-password': 'link',
+  invitation: 'link',
+  'account-locked': 'resetLink',
+  'password-changed': null,
+};
+export const MAIL_TEMPLATES = Object.keys(ACTION_LINK) as MailTemplate[];
+
+const LINK_FIELDS = new Set(['link', 'resetLink']);
+/** Durations are numbers in the data and read as "30 minutes" / "30 Minuten" in the text. */
+const DURATION_UNITS: Record<string, 'minute' | 'day'> = { minutes: 'minute', days: 'day' };
+
+const colour = { text: '#1e293b', muted: '#64748b', secondary: '#334155', ember: '#c2410c', page: '#f8fafc', line: '#e2e8f0', white: '#ffffff' };
+// the same stack as the apps' theme, so the mail reads like the product
+const fontStack = "'Lato', system-ui, -apple-system, 'Segoe UI', 'Helvetica Neue', Arial, sans-serif";
+
+export class MailRenderError extends Error {
+  override name = 'MailRenderError';
+}
+
+/** The catalogue locale for a requested one: "de-AT" reads German, anything unknown English. */
+export function resolveMailLocale(locale: string): MailLocale {
+  const primary = locale.toLowerCase().split(/[-_]/)[0];
+  return (MAIL_LOCALES as readonly string[]).includes(primary ?? '') ? (primary as MailLocale) : 'en';
+}
+
+export function escapeHtml(value: string): string {
+  return value.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+}
+
+/** Only absolute http(s) URLs may become links; anything else (javascript:, data:, relative) is a bug upstream. */
+function safeLink(field: string, value: unknown): string {
+  let url: URL;
+  try {
+    url = new URL(String(value));
+  } catch {
+    throw new MailRenderError(`Mail field "${field}" must be an absolute http(s) URL`);
+  }
+  if (url.protocol !== 'http:' && url.protocol !== 'https:') {
+    throw new MailRenderError(`Mail field "${field}" must be an http(s) URL, not ${url.protocol}`);
+  }
+  return url.href;
+}
+
+function formatValues(locale: MailLocale, messages: MailMessages, data: Record<string, unknown>): Record<string, string> {
+  const values: Record<string, string> = {};
+  for (const [key, value] of Object.entries(data)) {
+    const unit = DURATION_UNITS[key];
+    if (LINK_FIELDS.has(key)) values[key] = safeLink(key, value);
+    else if (unit && typeof value === 'number') {
+      values[key] = new Intl.NumberFormat(locale, { style: 'unit', unit, unitDisplay: 'long' }).format(value);
+    } else if (key === 'role' && typeof value === 'string') values[key] = messages.roles[value] ?? value;
+    else values[key] = String(value);
+  }
+  return values;
+}
+
+/** Fills `{name}` placeholders; `escape` applies to our words and the values alike. */
+function interpolate(message: string, values: Record<string, string>, escape: (s: string) => string): string {
+  return message
+    .split(/(\{\w+\})/)
+    .map((part, i) => {
+      if (i % 2 === 0) return escape(part);
+      const key = part.slice(1, -1);
+      const value = values[key];
+      // a missing value would silently send "{name}" to a customer
+      if (value === undefined) throw new MailRenderError(`Mail placeholder {${key}} has no value`);
+      return escape(value);
+    })
+    .join('');
+}
+
+const plain = (s: string) => s;
+
+function renderText(t: TemplateMessages, c: MailMessages['common'], values: Record<string, string>, link: string | null): string {
+  const fill = (m: string) => interpolate(m, values, plain);
+  const blocks = [fill(t.greeting), ...t.paragraphs.map(fill)];
+  if (link && t.action) blocks.push(`${fill(t.action)}:\n${link}`);
+  blocks.push(...(t.afterAction ?? []).map(fill));
+  blocks.push(`${c.signOff}\n${c.signature}`);
+  // "-- " is the conventional signature separator mail clients recognise
+  blocks.push(`-- \n${c.footer}`);
+  return blocks.join('\n\n') + '\n';
+}
+
+function renderHtml(locale: MailLocale, subject: string, t: TemplateMessages, c: MailMessages['common'], values: Record<string, string>, link: string | null): string {
+  const fill = (m: string) => interpolate(m, values, escapeHtml);
+  const font = `font-family:${fontStack};`;
+  const p = (html: string, style = '') => `<p style="margin:0 0 16px;${style}">${html}</p>`;
+  const parts: string[] = [
+    `<p style="margin:0 0 24px;font-size:14px;font-weight:700;letter-spacing:0.04em;color:${colour.ember};">${escapeHtml(c.signature)}</p>`,
+    `<h1 style="margin:0 0 16px;font-size:22px;line-height:1.3;font-weight:700;color:${colour.text};">${fill(t.heading)}</h1>`,
+    p(fill(t.greeting)),
+    ...t.paragraphs.map((m) => p(fill(m))),
+  ];
+  if (link && t.action) {
+    const href = escapeHtml(link);
+    parts.push(
+      `<table role="presentation" cellpadding="0" cellspacing="0" border="0" style="margin:8px 0 24px;"><tr>` +
+        `<td style="border-radius:6px;background-color:${colour.ember};">` +
+        `<a href="${href}" style="display:inline-block;padding:12px 24px;${font}font-size:16px;font-weight:700;line-height:1.2;color:${colour.white};text-decoration:none;border-radius:6px;">${fill(t.action)}</a>` +
+        `</td></tr></table>`,
+      p(`${escapeHtml(c.linkHint)}<br><a href="${href}" style="color:${colour.ember};text-decoration:underline;word-break:break-all;">${href}</a>`, `font-size:14px;color:${colour.secondary};`),
+    );
+  }
+  parts.push(...(t.afterAction ?? []).map((m) => p(fill(m))));
+  parts.push(`<p style="margin:24px 0 0;">${escapeHtml(c.signOff)}<br>${escapeHtml(c.signature)}</p>`);
+
+  return `<!doctype html>
+<html lang="${locale}">
+<head>
+<meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<meta name="color-scheme" content="light">
+<title>${escapeHtml(subject)}</title>
+</head>
+<body style="margin:0;padding:0;background-color:${colour.page};">
+<table role="presentation" width="100%" cellpadding="0" cellspacing="0" border="0" style="background-color:${colour.page};">
+<tr><td align="center" style="padding:24px 12px;">
+<table role="presentation" width="100%" cellpadding="0" cellspacing="0" border="0" style="max-width:560px;background-color:${colour.white};border:1px solid ${colour.line};border-radius:10px;">
+<tr><td style="padding:32px 32px 8px;${font}font-size:16px;line-height:1.6;color:${colour.text};">
+${parts.join('\n')}
+</td></tr>
+<tr><td style="padding:16px 32px 32px;${font}font-size:13px;line-height:1.5;color:${colour.muted};">${escapeHtml(c.footer)}</td></tr>
+</table>
+</td></tr>
+</table>
+</body>
+</html>
+`;
+}
+
+export function renderMail<T extends MailTemplate>(template: T, locale: string, data: MailTemplateData[T]): RenderedMail {
+  const lang = resolveMailLocale(locale);
+  const messages = catalogues[lang];
+  const t: TemplateMessages | undefined = messages.templates[template];
+  if (!t) throw new MailRenderError(`Unknown mail template "${template}"`);
+  const values = formatValues(lang, messages, data as Record<string, unknown>);
+  const linkField: string | null = ACTION_LINK[template];
+  const link = linkField ? (values[linkField] ?? null) : null;
+  if (linkField && !link) throw new MailRenderError(`Mail template "${template}" needs "${linkField}"`);
+  // header values must stay on one line whatever a name contains
+  const subject = interpolate(t.subject, values, plain).replace(/[\r\n]+/g, ' ').trim();
+  return {
+    subject,
+    text: renderText(t, messages.common, values, link),
+    html: renderHtml(lang, subject, t, messages.common, values, link),
+  };
+}
