@@ -1,6 +1,6 @@
 // `npm start`: installs what is missing, starts MariaDB, migrates and seeds, builds the apps,
 // starts the API (which serves the apps) and prints where everything is. Ctrl-C stops it all.
-import { spawn } from 'node:child_process';
+import { spawn, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
 import { migrateAndSeed } from '../apps/api/src/db/migrate';
 import { loadConfig, ConfigError } from '../apps/api/src/config';
@@ -8,13 +8,49 @@ import { buildApps } from './lib/build';
 import { ensureDatabase, startMariaDb, type MariaDbInstance } from './lib/mariadb';
 import { portInUse, waitForHttp } from './lib/net';
 import { failAndExit, ok, step } from './lib/output';
-import { dbEnv, devDatabase, root } from './lib/project';
+import { dbEnv, devDatabase, localSecret, root } from './lib/project';
 import { ensureSystemPackages, MARIADB } from './lib/system';
+import { DEMO_NETWORK_ADMINS, DEMO_ORGANISATIONS, DEMO_OWNERS, DEMO_PASSWORD } from '../apps/api/src/db/seed/demo-data';
+
+function demoSignIns(): string {
+  const rows: [string, string][] = [
+    ...DEMO_NETWORK_ADMINS.map((p): [string, string] => ['network admin', p.email]),
+    ...DEMO_ORGANISATIONS.flatMap((o) => o.members.map((m): [string, string] => [`${m.role === 'partner_admin' ? 'partner admin' : 'technician'}, ${o.name} (${o.status})`, m.email])),
+    ...DEMO_OWNERS.slice(0, 2).map((p): [string, string] => ['van owner', p.email]),
+  ];
+  return rows.map(([role, email]) => `    ${email.padEnd(32)} ${role}`).join('\n');
+}
 
 const t0 = performance.now();
 let db: MariaDbInstance | undefined;
+let mail: ChildProcess | undefined;
+const MAIL_SMTP_PORT = Number(process.env.MAIL_CAPTURE_SMTP_PORT ?? 2525);
+const MAIL_HTTP_PORT = Number(process.env.MAIL_CAPTURE_HTTP_PORT ?? 2580);
+
+/** Starts a helper process and resolves once it prints its ready line; rejects if it exits first. */
+function startChild(name: string, args: string[], env: NodeJS.ProcessEnv, ready: RegExp): Promise<ChildProcess> {
+  return new Promise((resolve, reject) => {
+    const child = spawn(process.execPath, args, { cwd: root, env, stdio: ['ignore', 'pipe', 'pipe'] });
+    let output = '';
+    const onData = (chunk: Buffer) => {
+      output += chunk.toString();
+      process.stdout.write(chunk);
+      if (ready.test(output)) resolve(child);
+    };
+    child.stdout!.on('data', onData);
+    child.stderr!.on('data', (chunk: Buffer) => {
+      output += chunk.toString();
+      process.stderr.write(chunk);
+    });
+    child.once('exit', (code) => reject(new Error(`The ${name} stopped during start-up (exit code ${code}).`)));
+  });
+}
 
 async function shutdown(code: number): Promise<never> {
+  if (mail && mail.exitCode === null) {
+    mail.kill('SIGTERM');
+    await new Promise((r) => mail!.once('exit', r));
+  }
   if (db?.startedHere) {
     step('Stopping MariaDB…');
     await db.stop();
@@ -25,7 +61,13 @@ async function shutdown(code: number): Promise<never> {
 try {
   ensureSystemPackages([MARIADB]);
   const settings = devDatabase();
-  const env = { ...process.env, NODE_ENV: process.env.NODE_ENV ?? 'production', ...dbEnv(settings) };
+  const env: NodeJS.ProcessEnv = {
+    ...process.env,
+    ...dbEnv(settings),
+    JWT_SECRET: process.env.JWT_SECRET ?? localSecret('jwtSecret', 48),
+    SMTP_URL: process.env.SMTP_URL ?? `smtp://127.0.0.1:${MAIL_SMTP_PORT}`,
+    MAIL_CAPTURE_URL: process.env.MAIL_CAPTURE_URL ?? `http://127.0.0.1:${MAIL_HTTP_PORT}`,
+  };
   let config;
   try {
     config = loadConfig(env);
@@ -41,10 +83,19 @@ try {
   db = await startMariaDb(settings.dir, settings.port);
   ok(db.startedHere ? `MariaDB started (pid ${db.pid})` : `MariaDB already running (pid ${db.pid}), reusing it`);
   ensureDatabase(db, settings);
-  const report = await migrateAndSeed(config);
-  ok(`Database ready: ${report.migrationsRun.length} migration(s) run; seed added ${report.seed?.capabilitiesAdded ?? 0} capabilities and ${report.seed?.serviceTypesAdded ?? 0} service types`);
+  const report = await migrateAndSeed(config, { bcryptCost: config.BCRYPT_COST });
+  const seeded = report.seed;
+  ok(`Database ready: ${report.migrationsRun.length} migration(s) run; seed added ${seeded?.capabilitiesAdded ?? 0} capabilities, ${seeded?.serviceTypesAdded ?? 0} service types, ${seeded?.organisationsAdded ?? 0} organisations, ${seeded?.usersAdded ?? 0} people`);
 
   buildApps();
+
+  step(`Starting the e-mail capture server (SMTP ${MAIL_SMTP_PORT}, web ${MAIL_HTTP_PORT})…`);
+  mail = await startChild('mail capture', ['--import', 'tsx', path.join(root, 'apps/api/src/fakes/mail/server.ts')], {
+    ...env,
+    MAIL_CAPTURE_SMTP_PORT: String(MAIL_SMTP_PORT),
+    MAIL_CAPTURE_HTTP_PORT: String(MAIL_HTTP_PORT),
+    MAIL_CAPTURE_FILE: path.join(root, 'var/mail/captured.json'),
+  }, /Mail capture ready/);
 
   step('Starting the API…');
   const api = spawn(process.execPath, ['--import', 'tsx', path.join(root, 'apps/api/src/server.ts')], { cwd: root, env, stdio: 'inherit' });
@@ -80,11 +131,13 @@ try {
   API reference                ${u}/api/docs   (OpenAPI: ${u}/api/openapi.json)
   MariaDB                      127.0.0.1:${settings.port}, database ${settings.name}, user ${settings.user}
                                (password in var/secrets.json)
+  E-mail capture               SMTP 127.0.0.1:${MAIL_SMTP_PORT}; captured mail at http://127.0.0.1:${MAIL_HTTP_PORT}/messages
+                               and in the Console's mail log (network admins)
 
-  Demo sign-ins: none yet. Accounts, roles and the demo partners arrive with the accounts work;
-  the catalogue of ${report.seed ? 'service types and capabilities' : 'services'} is seeded.
+  Demo sign-ins, all with the password ${DEMO_PASSWORD}:
+${demoSignIns()}
 
-  Press Ctrl-C to stop the API and MariaDB.
+  Press Ctrl-C to stop the API, the e-mail capture server and MariaDB.
 `);
   }
 } catch (err) {

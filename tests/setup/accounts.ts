@@ -28,7 +28,7 @@ export interface SignedIn {
   userId: string;
   accessToken: string;
   cookie: string;
-  body: { data: { user: { memberships: { organisationId: string; role: string }[] } } };
+  body: { data: { user: { roles: string[]; memberships: { organisationId: string; role: string }[] } } };
 }
 
 function refreshCookie(res: request.Response): string {

@@ -7,6 +7,7 @@ import { createLogger } from './lib/logger';
 import { createApp } from './app';
 import { VERSION } from './version';
 import { localSecret } from './lib/local-secrets';
+import { createScheduler, type Scheduler } from './jobs/scheduler';
 
 function fail(message: string, exitCode: number): never {
   process.stderr.write(`\n✖ ${message}\n\n`);
@@ -54,12 +55,19 @@ async function main(): Promise<void> {
   });
   server.on('listening', () => logger.info({ url: config.publicUrl }, 'Emberline API listening'));
 
+  // the jobs read the same environment; with several instances a database lock keeps each run single
+  let scheduler: Scheduler | undefined;
+  if (config.RUN_SCHEDULER) {
+    scheduler = createScheduler({ env: { ...process.env, JWT_SECRET: jwtSecret }, logger });
+    await scheduler.start();
+  }
+
   let stopping = false;
   const stop = (signal: string) => {
     if (stopping) return;
     stopping = true;
     logger.info({ signal }, 'stopping');
-    server.close(() => void dataSource.destroy().finally(() => process.exit(0)));
+    server.close(() => void Promise.allSettled([scheduler?.stop(), dataSource.destroy()]).finally(() => process.exit(0)));
     server.closeAllConnections();
     setTimeout(() => process.exit(0), 5000).unref();
   };
