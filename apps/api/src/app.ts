@@ -93,6 +93,11 @@ export function createApp(deps: AppDeps): EmberlineApp {
         return id;
       },
       autoLogging: { ignore: (req) => req.url === '/api/health' },
+      // one short line per request: no headers (they carry tokens and cookies)
+      serializers: {
+        req: (req: { id: string; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+      },
     }),
   );
 
