@@ -140,6 +140,11 @@ describe('refresh tokens', () => {
     const rotated = ([] as string[]).concat(first.headers['set-cookie'] ?? []).find((c) => c.startsWith('emberline_refresh='))!;
     expect(rotated).toMatch(/HttpOnly/i);
     expect(rotated).toMatch(/SameSite=Strict/i);
+    expect(rotated).toMatch(/Path=\/api\/auth/i);
+    // the readable hint says only that a session exists; it is not a credential
+    const hint = ([] as string[]).concat(first.headers['set-cookie'] ?? []).find((c) => c.startsWith('emberline_session='))!;
+    expect(hint).toMatch(/^emberline_session=1;/);
+    expect(hint).not.toMatch(/HttpOnly/i);
     const second = rotated.split(';')[0]!;
     expect(second).not.toBe(s.cookie);
 
@@ -154,7 +159,8 @@ describe('refresh tokens', () => {
 
   it('sign-out revokes the session', async () => {
     const s = await signIn(t.app, 'jakob@owners.example', DEMO_PASSWORD);
-    await request(t.app).post('/api/auth/sign-out').set('cookie', s.cookie).expect(200);
+    const out = await request(t.app).post('/api/auth/sign-out').set('cookie', s.cookie).expect(200);
+    expect(([] as string[]).concat(out.headers['set-cookie'] ?? []).some((c) => /^emberline_session=;/.test(c))).toBe(true);
     await request(t.app).post('/api/auth/refresh').set('cookie', s.cookie).expect(401);
   });
 

@@ -10,6 +10,11 @@ import * as sessions from '../services/session.service';
 import * as team from '../services/team.service';
 
 export const REFRESH_COOKIE = 'emberline_refresh';
+/**
+ * A harmless, readable companion of the httpOnly refresh cookie: it only says "a session may
+ * exist", so the apps try to restore a session at start-up only when there is one to restore.
+ */
+export const SESSION_HINT_COOKIE = 'emberline_session';
 const REFRESH_PATH = '/api/auth';
 
 export function authController({ dataSource, authSettings }: AppContext) {
@@ -19,11 +24,15 @@ export function authController({ dataSource, authSettings }: AppContext) {
 
   function respondWithSession(res: Response, session: sessions.IssuedSession) {
     res.cookie(REFRESH_COOKIE, session.refreshToken, { httpOnly: true, sameSite: 'strict', secure, path: REFRESH_PATH, expires: session.refreshExpiresAt });
+    res.cookie(SESSION_HINT_COOKIE, '1', { httpOnly: false, sameSite: 'strict', secure, path: '/', expires: session.refreshExpiresAt });
     res.set('cache-control', 'no-store');
     const { refreshToken: _hidden, refreshExpiresAt: _expires, ...body } = session;
     return { data: body };
   }
-  const clearCookie = (res: Response) => res.clearCookie(REFRESH_COOKIE, { httpOnly: true, sameSite: 'strict', secure, path: REFRESH_PATH });
+  const clearCookie = (res: Response) => {
+    res.clearCookie(REFRESH_COOKIE, { httpOnly: true, sameSite: 'strict', secure, path: REFRESH_PATH });
+    res.clearCookie(SESSION_HINT_COOKIE, { httpOnly: false, sameSite: 'strict', secure, path: '/' });
+  };
   const cookieOf = (req: Request): string | undefined => (req.cookies as Record<string, string> | undefined)?.[REFRESH_COOKIE];
   const accepted = (message: string) => ({ data: { accepted: true as const, message } });
 
