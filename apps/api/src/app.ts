@@ -21,6 +21,7 @@ import { registerAdminRoutes } from './routes/admin.routes';
 import { registerAuthRoutes } from './routes/auth.routes';
 import { registerCatalogueRoutes } from './routes/catalogue.routes';
 import { registerTeamRoutes } from './routes/team.routes';
+import { registerVehicleRoutes } from './routes/vehicle.routes';
 import { registerHealthRoutes } from './routes/health.routes';
 import { docsRouter } from './routes/docs.routes';
 
@@ -123,6 +124,7 @@ export function createApp(deps: AppDeps): EmberlineApp {
   registerCatalogueRoutes(api, context);
   registerAuthRoutes(api, context);
   registerAccountRoutes(api, context);
+  registerVehicleRoutes(api, context);
   registerTeamRoutes(api, context);
   registerAdminRoutes(api, context);
   api.router.use(docsRouter(registry, deps.version));

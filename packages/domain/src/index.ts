@@ -5,3 +5,4 @@ export * from './schemas/health';
 export * from './heater';
 export * from './schemas/preheat';
 export * from './schemas/accounts';
+export * from './schemas/vehicles';

@@ -7,6 +7,7 @@ import { OrganisationEntity } from './organisation.entity';
 import { ServiceTypeEntity } from './service-type.entity';
 import { InvitationEntity, OneTimeTokenEntity, RefreshTokenEntity, type OneTimePurpose } from './tokens.entity';
 import { UserAccountEntity } from './user-account.entity';
+import { VehicleEntity } from './vehicle.entity';
 
 export type { OneTimePurpose };
 export {
@@ -20,6 +21,7 @@ export {
   RefreshTokenEntity,
   ServiceTypeEntity,
   UserAccountEntity,
+  VehicleEntity,
 };
 export const entities = [
   AuditLogEntity,
@@ -32,4 +34,5 @@ export const entities = [
   RefreshTokenEntity,
   ServiceTypeEntity,
   UserAccountEntity,
+  VehicleEntity,
 ];

@@ -1,5 +1,6 @@
 // Every migration, in order. Add new ones at the end.
 import { Catalogue1764620000000 } from './1764620000000-catalogue';
 import { Accounts1764630000000 } from './1764630000000-accounts';
+import { Vehicles1764640000000 } from './1764640000000-vehicles';
 
-export const migrations = [Catalogue1764620000000, Accounts1764630000000];
+export const migrations = [Catalogue1764620000000, Accounts1764630000000, Vehicles1764640000000];

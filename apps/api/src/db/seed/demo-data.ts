@@ -1,7 +1,7 @@
 // The invented demo scenario (see the project's demo brief): one network, partner
 // organisations in the Alps and the Nordics, their people, and van owners. Names are invented;
 // e-mail addresses use the reserved example domain.
-import type { MemberRole, OrganisationStatus } from '@emberline/domain';
+import type { MemberRole, OrganisationStatus, VehicleInput } from '@emberline/domain';
 
 export const DEMO_PASSWORD = 'ember-demo-2026';
 
@@ -78,3 +78,19 @@ export const DEMO_OWNERS: DemoPerson[] = [
   { name: 'Ingrid Solheim', email: 'ingrid@owners.example' },
   { name: 'Hannes Auer', email: 'hannes@owners.example', locale: 'de' },
 ];
+
+/** Invented van models: a straightforward conversion, the same with manual climate control, a
+ * camper for a retrofit, and a 24 V heavy van. */
+const CARGO_4: Omit<VehicleInput, 'name' | 'year'> = { model: 'Korvan Cargo 4', fuel: 'diesel', factoryHeater: 'coolant_auxiliary', climateControl: 'automatic', electricalSystemV: 12, batteryCapacityAh: 95, batteryType: 'agm' };
+const CARGO_4_BASIC: Omit<VehicleInput, 'name' | 'year'> = { ...CARGO_4, model: 'Korvan Cargo 4 Basic', climateControl: 'manual', batteryCapacityAh: 80, batteryType: 'flooded' };
+const CAMPER_2: Omit<VehicleInput, 'name' | 'year'> = { model: 'Maren Camper 2', fuel: 'diesel', factoryHeater: 'none', climateControl: 'manual', electricalSystemV: 12, batteryCapacityAh: 100, batteryType: 'flooded' };
+const TRANSIT_9: Omit<VehicleInput, 'name' | 'year'> = { model: 'Tessaro Transit 9', fuel: 'diesel', factoryHeater: 'coolant_parking', climateControl: 'automatic', electricalSystemV: 24, batteryCapacityAh: 180, batteryType: 'agm' };
+
+export const DEMO_VEHICLES: Record<string, VehicleInput[]> = {
+  'clara@owners.example': [{ ...CARGO_4, name: 'Work van', year: 2021 }],
+  'max@owners.example': [{ ...CARGO_4_BASIC, name: 'Delivery van', year: 2019 }, { ...CAMPER_2, name: 'Family camper', year: 2017 }],
+  'theresa@owners.example': [{ ...CAMPER_2, name: 'Weekend camper', year: 2022 }],
+  'jakob@owners.example': [{ ...TRANSIT_9, name: 'Site van', year: 2020 }],
+  'ingrid@owners.example': [{ ...CARGO_4, name: 'Winter van', year: 2023 }],
+  'hannes@owners.example': [{ ...CARGO_4_BASIC, name: 'Van', year: 2018 }],
+};

@@ -2,9 +2,9 @@
 // and organisations by name, and adds only what is missing.
 import bcrypt from 'bcryptjs';
 import type { EntityManager } from 'typeorm';
-import { MembershipEntity, OrganisationEntity, UserAccountEntity } from '../../entities';
+import { MembershipEntity, OrganisationEntity, UserAccountEntity, VehicleEntity } from '../../entities';
 import { newId } from '../../lib/secure-token';
-import { DEMO_NETWORK_ADMINS, DEMO_ORGANISATIONS, DEMO_OWNERS, DEMO_PASSWORD, type DemoPerson } from './demo-data';
+import { DEMO_NETWORK_ADMINS, DEMO_ORGANISATIONS, DEMO_OWNERS, DEMO_PASSWORD, DEMO_VEHICLES, type DemoPerson } from './demo-data';
 
 export interface DemoSeedReport {
   usersAdded: number;
@@ -18,9 +18,11 @@ export async function seedDemo(manager: EntityManager, bcryptCost: number): Prom
   const report: DemoSeedReport = { usersAdded: 0, organisationsAdded: 0 };
   let passwordHash: string | undefined;
 
+  const created = new Set<string>();
   async function person(p: DemoPerson, flags: Partial<UserAccountEntity>): Promise<UserAccountEntity> {
     const existing = await users.findOneBy({ email: p.email });
     if (existing) return existing;
+    created.add(p.email);
     passwordHash ??= await bcrypt.hash(DEMO_PASSWORD, bcryptCost);
     report.usersAdded++;
     return users.save(
@@ -41,7 +43,14 @@ export async function seedDemo(manager: EntityManager, bcryptCost: number): Prom
   }
 
   for (const admin of DEMO_NETWORK_ADMINS) await person(admin, { isNetworkAdmin: true });
-  for (const owner of DEMO_OWNERS) await person(owner, { isOwner: true });
+  const vehicles = manager.getRepository(VehicleEntity);
+  for (const owner of DEMO_OWNERS) {
+    const user = await person(owner, { isOwner: true });
+    // vehicles are seeded together with their owner only, so later edits are never undone
+    if (created.has(owner.email)) {
+      for (const v of DEMO_VEHICLES[owner.email] ?? []) await vehicles.insert({ id: newId(), ownerUserId: user.id, ...v });
+    }
+  }
   for (const demo of DEMO_ORGANISATIONS) {
     let org = await orgs.findOneBy({ name: demo.name });
     if (!org) {
