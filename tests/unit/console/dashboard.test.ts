@@ -11,6 +11,10 @@ import { createAppRouter } from '@/router';
 import Dashboard from '@/views/dashboard/index.vue';
 
 vi.mock('@/api/catalogue', () => ({ listServiceTypes: vi.fn(), listCapabilities: vi.fn() }));
+// Nobody is signed in: the guard's restore gets a 401.
+vi.mock('@/api/auth', () => ({
+  refreshSession: vi.fn(() => Promise.reject(new ApiError({ type: 'about:blank', title: 'Signed out', status: 401, code: 'SESSION_EXPIRED' }))),
+}));
 
 const capabilities: Capability[] = [
   { code: 'uds-flash-programming', name: 'UDS flashing interface', description: '', category: 'diagnostics', standards: ['ISO 14229'], retired: false },

@@ -5,6 +5,7 @@ import './types';
 import { appConfig } from '@/app-config';
 import { i18n } from '@/locales';
 import { installGuards } from './guard';
+import { accountRoutes } from './routes/account';
 import { adminRoutes } from './routes/admin';
 import { authRoutes } from './routes/auth';
 import { dashboardRoutes } from './routes/dashboard';
@@ -16,7 +17,7 @@ export const routes: RouteRecordRaw[] = [
   {
     path: '/',
     component: () => import('@/layouts/console-layout.vue'),
-    children: [{ path: '', redirect: { name: 'dashboard' } }, ...dashboardRoutes, ...partnerRoutes, ...adminRoutes, ...notFoundRoutes],
+    children: [{ path: '', redirect: { name: 'dashboard' } }, ...dashboardRoutes, ...accountRoutes, ...partnerRoutes, ...adminRoutes, ...notFoundRoutes],
   },
 ];
 

@@ -9,5 +9,7 @@ declare module 'vue-router' {
     title: string;
     roles?: Role[];
     comingWith?: string;
+    /** Pages for signed-out visitors (sign-in, join): signed-in users go on to the dashboard. */
+    guestOnly?: boolean;
   }
 }

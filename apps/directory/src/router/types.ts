@@ -9,5 +9,7 @@ declare module 'vue-router' {
     title: string;
     /** Roles allowed to open the page; undefined means public. */
     roles?: Role[];
+    /** Pages for signed-out visitors (sign-in, sign-up): signed-in users go on to their page. */
+    guestOnly?: boolean;
   }
 }

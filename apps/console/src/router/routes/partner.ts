@@ -1,4 +1,4 @@
-// Partner pages: not built yet, each says which issue brings it.
+// Partner pages: the team, and those not built yet (each says which issue brings it).
 import type { RouteRecordRaw } from 'vue-router';
 
 const comingSoon = () => import('@/views/coming-soon/index.vue');
@@ -7,6 +7,6 @@ export const partnerRoutes: RouteRecordRaw[] = [
   { path: 'bookings', name: 'bookings', component: comingSoon, meta: { title: 'nav.bookings', roles: ['technician', 'partner_admin'], comingWith: 'issues.booking' } },
   { path: 'job-sheets', name: 'job-sheets', component: comingSoon, meta: { title: 'nav.jobSheets', roles: ['technician', 'partner_admin'], comingWith: 'issues.jobSheets' } },
   { path: 'services', name: 'services-prices', component: comingSoon, meta: { title: 'nav.servicesPrices', roles: ['partner_admin'], comingWith: 'issues.offers' } },
-  { path: 'team', name: 'team', component: comingSoon, meta: { title: 'nav.team', roles: ['partner_admin'], comingWith: 'issues.onboarding' } },
+  { path: 'team', name: 'team', component: () => import('@/views/team/index.vue'), meta: { title: 'nav.team', roles: ['partner_admin', 'technician'] } },
   { path: 'statements', name: 'statements', component: comingSoon, meta: { title: 'nav.statements', roles: ['partner_admin'], comingWith: 'issues.payouts' } },
 ];
