@@ -2,3 +2,5 @@
 export * from './http';
 export * from './catalogue';
 export * from './health';
+export * from './accounts';
+export * from './vehicles';

@@ -101,11 +101,42 @@ const en = {
     },
     deferHeading: 'Local codes and licensed practice',
   },
+  header: {
+    account: 'Account',
+    console: 'Open the Console',
+    menuLabel: 'Account',
+  },
   signIn: {
     metaTitle: 'Sign in',
-    title: 'Owner accounts are coming',
-    text: 'Signing in to see your bookings and vehicles arrives with owner accounts. You can already browse services and safety notes.',
-    home: 'Back to the home page',
+    title: 'Sign in',
+    lead: 'See your bookings, vehicles and job reports.',
+    noAccount: 'New to Emberline?',
+    createAccount: 'Create an account',
+  },
+  signUp: {
+    metaTitle: 'Create an account',
+    title: 'Create your account',
+    lead: 'Book technicians, pay securely and keep your job reports in one place.',
+    haveAccount: 'Already have an account?',
+  },
+  checkInbox: {
+    metaTitle: 'Check your inbox',
+  },
+  verifyEmail: {
+    metaTitle: 'Confirm your e-mail address',
+    title: 'Confirm your e-mail address',
+    findTechnician: 'Find a technician',
+    toAccount: 'Go to your account',
+  },
+  forgotPassword: {
+    metaTitle: 'Forgot your password?',
+  },
+  resetPassword: {
+    metaTitle: 'Choose a new password',
+  },
+  accountPage: {
+    metaTitle: 'Your account',
+    title: 'Your account',
   },
   notFound: {
     metaTitle: 'Page not found',

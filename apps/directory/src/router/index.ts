@@ -4,13 +4,14 @@ import './types';
 import { appConfig } from '@/app-config';
 import { i18n } from '@/locales';
 import { installGuards } from './guard';
+import { accountRoutes } from './routes/account';
 import { authRoutes } from './routes/auth';
 import { homeRoutes } from './routes/home';
 import { notFoundRoutes } from './routes/not-found';
 import { safetyRoutes } from './routes/safety';
 import { searchRoutes } from './routes/search';
 
-export const routes = [...homeRoutes, ...searchRoutes, ...safetyRoutes, ...authRoutes, ...notFoundRoutes];
+export const routes = [...homeRoutes, ...searchRoutes, ...safetyRoutes, ...authRoutes, ...accountRoutes, ...notFoundRoutes];
 
 export function createAppRouter(history: RouterHistory = createWebHistory('/')) {
   const router = createRouter({
