@@ -4,3 +4,4 @@ export * from './catalogue';
 export * from './health';
 export * from './accounts';
 export * from './vehicles';
+export * from './session-clients';

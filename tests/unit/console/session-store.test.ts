@@ -39,6 +39,14 @@ describe('Console session store', () => {
     expect(refreshSession).toHaveBeenCalledTimes(1);
   });
 
+  it('does not ask the server at start-up when the browser holds no session', async () => {
+    document.cookie = 'emberline_session=; expires=Thu, 01 Jan 1970 00:00:00 GMT; path=/';
+    const store = useSessionStore();
+    await store.restore();
+    expect(refreshSession).not.toHaveBeenCalled();
+    expect(store.isSignedIn).toBe(false);
+  });
+
   it('shares one refresh request between concurrent callers', async () => {
     let answer!: (s: Session) => void;
     vi.mocked(refreshSession).mockReturnValueOnce(new Promise((resolve) => (answer = resolve)));
