@@ -2,7 +2,7 @@
 // driven by playwright-core in Debian's Chromium, with axe-core for accessibility checks.
 import { createRequire } from 'node:module';
 import { mkdirSync } from 'node:fs';
-import type { AddressInfo } from 'node:net';
+import net, { type AddressInfo } from 'node:net';
 import type { Server } from 'node:http';
 import path from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
@@ -20,12 +20,23 @@ export interface Harness {
   close(): Promise<void>;
 }
 
-export async function startHarness(env: Record<string, string> = {}): Promise<Harness> {
-  const t = await createTestApp({ SERVE_APPS: 'true', ...env });
-  const server: Server = await new Promise((resolve) => {
-    const s = t.app.listen(0, '127.0.0.1', () => resolve(s));
+async function freePort(): Promise<number> {
+  return new Promise((resolve) => {
+    const probe = net.createServer().listen(0, '127.0.0.1', () => {
+      const { port } = probe.address() as AddressInfo;
+      probe.close(() => resolve(port));
+    });
   });
-  const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+}
+
+export async function startHarness(env: Record<string, string> = {}): Promise<Harness> {
+  // the port is chosen first so that links in e-mails point at this very server
+  const port = await freePort();
+  const baseUrl = `http://127.0.0.1:${port}`;
+  const t = await createTestApp({ SERVE_APPS: 'true', PUBLIC_URL: baseUrl, ...env });
+  const server: Server = await new Promise((resolve) => {
+    const s = t.app.listen(port, '127.0.0.1', () => resolve(s));
+  });
   const browser = await chromium.launch({
     executablePath: '/usr/bin/chromium',
     args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],

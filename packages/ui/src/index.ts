@@ -16,3 +16,4 @@ export { default as SignUpForm } from './components/account/sign-up-form.vue';
 export { default as EmailLinkForm } from './components/account/email-link-form.vue';
 export { default as ResetPasswordForm } from './components/account/reset-password-form.vue';
 export { default as PasswordField } from './components/account/password-field.vue';
+export { default as NativeSelect } from './components/native-select.vue';
