@@ -6,12 +6,14 @@ import { i18n } from '@/locales';
 import { installGuards } from './guard';
 import { accountRoutes } from './routes/account';
 import { authRoutes } from './routes/auth';
+import { garageRoutes } from './routes/garage';
 import { homeRoutes } from './routes/home';
 import { notFoundRoutes } from './routes/not-found';
 import { safetyRoutes } from './routes/safety';
 import { searchRoutes } from './routes/search';
+import { toolsRoutes } from './routes/tools';
 
-export const routes = [...homeRoutes, ...searchRoutes, ...safetyRoutes, ...authRoutes, ...accountRoutes, ...notFoundRoutes];
+export const routes = [...homeRoutes, ...searchRoutes, ...safetyRoutes, ...authRoutes, ...accountRoutes, ...toolsRoutes, ...garageRoutes, ...notFoundRoutes];
 
 export function createAppRouter(history: RouterHistory = createWebHistory('/')) {
   const router = createRouter({
