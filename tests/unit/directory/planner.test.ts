@@ -35,7 +35,9 @@ type Wrapper = Awaited<ReturnType<typeof mountPlanner>>;
 
 const input = (wrapper: Wrapper, field: string) => wrapper.find(`input#preheat_${field}`);
 const numberIn = (wrapper: Wrapper, field: string) => Number((input(wrapper, field).element as HTMLInputElement).value);
-const itemOf = (wrapper: Wrapper, field: string) => input(wrapper, field).element.closest('.ant-form-item')!;
+const itemOf = (wrapper: Wrapper, field: string) => wrapper.find(`#preheat_${field}`).element.closest('.ant-form-item')!;
+/** The text of the option a native select shows as chosen. */
+const chosen = (wrapper: Wrapper, field: string) => (wrapper.find(`select#preheat_${field}`).element as HTMLSelectElement).selectedOptions[0]?.textContent?.trim();
 
 async function type(wrapper: Wrapper, field: string, value: string) {
   const el = input(wrapper, field);
@@ -88,7 +90,7 @@ describe('Pre-heat planner', () => {
     await flushPromises();
     for (const field of NUMERIC_FIELDS) expect(numberIn(wrapper, field), field).toBe(MOTORHOME_PRESET.values[field]);
     expect(numberIn(wrapper, 'efficiencyPercent')).toBe(MOTORHOME_PRESET.values.combustionEfficiency * 100);
-    expect(itemOf(wrapper, 'batteryType').textContent).toContain('Flooded (wet)');
+    expect(chosen(wrapper, 'batteryType')).toBe('Flooded (wet)');
     // The van and the motorhome differ, so the fields really changed.
     expect(MOTORHOME_PRESET.values.engineMassKg).not.toBe(PANEL_VAN_PRESET.values.engineMassKg);
   });
@@ -178,8 +180,8 @@ describe('Pre-heat planner', () => {
     await flushPromises();
     expect(listVehicles).toHaveBeenCalled();
     expect(numberIn(wrapper, 'batteryCapacityAh')).toBe(180);
-    expect(itemOf(wrapper, 'systemVoltage').textContent).toContain('24 V');
-    expect(itemOf(wrapper, 'batteryType').textContent).toContain('Flooded (wet)');
+    expect(chosen(wrapper, 'systemVoltage')).toBe('24 V');
+    expect(chosen(wrapper, 'batteryType')).toBe('Flooded (wet)');
     expect(wrapper.find('[data-testid="planner-vehicle"]').text()).toContain('Planning for Depot truck (Tessaro Transit 9)');
   });
 
