@@ -3,5 +3,6 @@ export * from './http';
 export * from './catalogue';
 export * from './health';
 export * from './accounts';
+export * from './account-api';
 export * from './vehicles';
 export * from './session-clients';

@@ -1,5 +1,8 @@
 // Shared UI for both apps: theme, formatting, errors, composables and components.
 // Fonts and base styles are side effects: import '@emberline/ui/fonts' and '@emberline/ui/styles.css'.
+// The account frames and pages carry their own styles, which would pull them and their
+// ant-design-vue parts into every chunk that imports this file: import those by path instead
+// (`@emberline/ui/account/account-card.vue`).
 export * from './theme';
 export * from './format';
 export * from './errors';

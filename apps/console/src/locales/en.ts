@@ -49,7 +49,6 @@ const en = {
   },
   verifyEmail: {
     metaTitle: 'Confirm your e-mail address',
-    title: 'Confirm your e-mail address',
     toDashboard: 'Go to the dashboard',
   },
   acceptInvitation: {

@@ -1,46 +1,11 @@
 // Owner accounts: sign-up, sign-in, sessions, e-mail links and the signed-in user.
-import * as client from '@emberline/api-client';
-import type { Me, OwnerSignUp, ResetPassword, Session, SignIn } from '@emberline/domain';
+import { createAccountApi, signUpOwner, type Accepted } from '@emberline/api-client';
+import type { OwnerSignUp } from '@emberline/domain';
 import { authHttp, http } from './http';
 
-const app = 'directory' as const;
+export const { resendVerification, signIn, refreshSession, signOut, verifyEmail, forgotPassword, resetPassword, getMe, updateMe } =
+  createAccountApi({ http, authHttp, app: 'directory' });
 
-export function signUp(body: OwnerSignUp): Promise<client.Accepted> {
-  return client.signUpOwner(authHttp, body);
-}
-
-export function resendVerification(email: string): Promise<client.Accepted> {
-  return client.resendVerification(authHttp, { email, app });
-}
-
-export function signIn(body: SignIn): Promise<Session> {
-  return client.signIn(authHttp, body);
-}
-
-export function refreshSession(): Promise<Session> {
-  return client.refreshSession(authHttp);
-}
-
-export function signOut(): Promise<client.Accepted> {
-  return client.signOut(authHttp);
-}
-
-export function verifyEmail(token: string): Promise<Session> {
-  return client.verifyEmail(authHttp, token);
-}
-
-export function forgotPassword(email: string): Promise<client.Accepted> {
-  return client.forgotPassword(authHttp, { email, app });
-}
-
-export function resetPassword(body: ResetPassword): Promise<client.Accepted> {
-  return client.resetPassword(authHttp, body);
-}
-
-export function getMe(signal?: AbortSignal): Promise<Me> {
-  return client.getMe(http, signal);
-}
-
-export function updateMe(body: { name?: string; locale?: 'en' | 'de' }): Promise<Me> {
-  return client.updateMe(http, body);
+export function signUp(body: OwnerSignUp): Promise<Accepted> {
+  return signUpOwner(authHttp, body);
 }

@@ -124,7 +124,6 @@ const en = {
   },
   verifyEmail: {
     metaTitle: 'Confirm your e-mail address',
-    title: 'Confirm your e-mail address',
     findTechnician: 'Find a technician',
     toAccount: 'Go to your account',
   },

@@ -51,6 +51,7 @@ const en = {
     checkInboxText: 'We have sent a confirmation link to {email}. Open it to finish creating your account. The link works for 48 hours.',
     checkInboxNoEmail: 'We have sent you a confirmation link. Open it to finish creating your account. The link works for 48 hours.',
     noEmailYet: 'No e-mail yet?',
+    verifyTitle: 'Confirm your e-mail address',
     verifying: 'Confirming your e-mail address…',
     verifiedTitle: 'Your e-mail address is confirmed',
     verifiedText: 'Welcome, {name}. You are signed in.',
