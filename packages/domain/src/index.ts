@@ -6,3 +6,4 @@ export * from './heater';
 export * from './schemas/preheat';
 export * from './schemas/accounts';
 export * from './schemas/vehicles';
+export * from './schemas/onboarding';
