@@ -29,9 +29,11 @@ export function devDatabase(env = process.env): DatabaseSettings {
 
 /** Tests use their own server and data directory, so they never touch development data. */
 export function testDatabase(name: 'emberline_test' | 'emberline_e2e', env = process.env): DatabaseSettings {
+  const port = Number(env.TEST_DB_PORT ?? 3308);
   return {
-    dir: path.join(varDir, 'test-mariadb'),
-    port: Number(env.TEST_DB_PORT ?? 3308),
+    // another port gets its own data directory, so two test runs can go on side by side
+    dir: path.join(varDir, port === 3308 ? 'test-mariadb' : `test-mariadb-${port}`),
+    port,
     name,
     user: 'emberline_test',
     password: localSecret('testDbPassword'),

@@ -1,7 +1,7 @@
 // Sign-up, sign-in, session refresh and sign-out, verification, password reset and invitations.
 // Mutations run in one transaction each, so an e-mail is queued only with the change it reports.
 import type { Request, Response } from 'express';
-import { PasswordSchema, type AcceptInvitation, type OwnerSignUp, type PartnerSignUp } from '@emberline/domain';
+import { passwordProblems, type AcceptInvitation, type OwnerSignUp, type PartnerSignUp } from '@emberline/domain';
 import type { AppContext } from '../app';
 import type { Actor } from '../lib/context';
 import { ValidationFailed } from '../lib/errors';
@@ -79,11 +79,8 @@ export function authController({ dataSource, authSettings }: AppContext) {
     previewInvitation: async ({ params }: { params: { token: string } }) => ({ data: await team.previewInvitation(dataSource.manager, params.token) }),
     acceptInvitation: async ({ body, res, actor }: { body: AcceptInvitation; res: Response; actor: Actor }) => {
       const validateNewPassword = (email: string, password: string, name?: string) => {
-        const errors = [];
-        if (!name?.trim()) errors.push({ path: 'name', message: 'Enter your name' });
-        const parsed = PasswordSchema.safeParse(password);
-        if (!parsed.success) errors.push(...parsed.error.issues.map((i) => ({ path: 'password', message: i.message })));
-        else if (password.toLowerCase() === email || password.toLowerCase() === email.split('@')[0]) errors.push({ path: 'password', message: 'Your password must not be your e-mail address' });
+        const errors = passwordProblems(email, password).map((message) => ({ path: 'password', message }));
+        if (!name?.trim()) errors.unshift({ path: 'name', message: 'Enter your name' });
         if (errors.length) throw ValidationFailed('Please correct the highlighted fields.', errors);
       };
       return respondWithSession(res, await tx(actor, (ctx) => team.acceptInvitation(ctx, body, authSettings, validateNewPassword)));

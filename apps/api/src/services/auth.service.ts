@@ -2,10 +2,10 @@
 // tell whether an address has an account are the same either way.
 import bcrypt from 'bcryptjs';
 import { IsNull, type EntityManager } from 'typeorm';
-import type { OwnerSignUp, PartnerSignUp } from '@emberline/domain';
+import { PASSWORD_IS_EMAIL_MESSAGE, passwordMatchesEmail, type OwnerSignUp, type PartnerSignUp } from '@emberline/domain';
 import { MembershipEntity, OneTimeTokenEntity, OrganisationEntity, UserAccountEntity, type OneTimePurpose } from '../entities';
 import type { ServiceContext } from '../lib/context';
-import { createError } from '../lib/errors';
+import { createError, ValidationFailed } from '../lib/errors';
 import { hashToken, newId, newToken } from '../lib/secure-token';
 import { enqueueMail } from '../mail/outbox';
 import { audit } from './audit.service';
@@ -176,9 +176,8 @@ export async function forgotPassword(ctx: ServiceContext, email: string, app: 'd
 
 export async function resetPassword(ctx: ServiceContext, input: { token: string; password: string }, settings: AuthSettings): Promise<void> {
   const user = await consumeOneTimeToken(ctx.manager, input.token, 'reset_password');
-  const lower = input.password.toLowerCase();
-  if (lower === user.email || lower === user.email.split('@')[0]) {
-    throw createError('VALIDATION_FAILED', 400, 'Some fields need your attention')(undefined, [{ path: 'password', message: 'Your password must not be your e-mail address' }]);
+  if (passwordMatchesEmail(user.email, input.password)) {
+    throw ValidationFailed('Please correct the highlighted fields.', [{ path: 'password', message: PASSWORD_IS_EMAIL_MESSAGE }]);
   }
   await ctx.manager.getRepository(UserAccountEntity).update(
     { id: user.id },

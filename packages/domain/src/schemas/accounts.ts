@@ -52,14 +52,27 @@ export const PasswordSchema = z
   .max(128, 'Use at most 128 characters')
   .refine((p) => !isCommonPassword(p), 'This password is too common: choose one that is harder to guess');
 
+export const PASSWORD_IS_EMAIL_MESSAGE = 'Your password must not be your e-mail address';
+
+/** True when the password is the e-mail address or its local part (case-insensitive). */
+export function passwordMatchesEmail(email: string, password: string): boolean {
+  const lower = password.toLowerCase();
+  const address = email.toLowerCase();
+  return lower === address || lower === address.split('@')[0];
+}
+
+/** Every password rule for a given address, as messages; empty when the password is acceptable. */
+export function passwordProblems(email: string, password: string): string[] {
+  const parsed = PasswordSchema.safeParse(password);
+  if (!parsed.success) return parsed.error.issues.map((i) => i.message);
+  return passwordMatchesEmail(email, password) ? [PASSWORD_IS_EMAIL_MESSAGE] : [];
+}
+
 /** Adds the rule "password is not the e-mail address" to a schema with `email` and `password`. */
 function withPasswordRules<T extends z.ZodObject<{ email: typeof EmailSchema; password: typeof PasswordSchema }>>(schema: T) {
   return schema.superRefine((v, ctx) => {
     const { email, password } = v as { email: string; password: string };
-    const lower = password.toLowerCase();
-    if (lower === email || lower === email.split('@')[0]) {
-      ctx.addIssue({ code: 'custom', path: ['password'], message: 'Your password must not be your e-mail address' });
-    }
+    if (passwordMatchesEmail(email, password)) ctx.addIssue({ code: 'custom', path: ['password'], message: PASSWORD_IS_EMAIL_MESSAGE });
   });
 }
 
