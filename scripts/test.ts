@@ -18,12 +18,12 @@ interface Outcome {
 const outcomes: Outcome[] = [];
 const reports = path.join(varDir, 'test-results');
 
-function vitest(name: string, projects: string[]): void {
+function vitest(name: string, projects: string[], env: Record<string, string> = {}): void {
   step(`Tests: ${name}`);
-  const out = path.join(reports, `${name}.json`);
+  const out = path.join(reports, `${name.replace(/\W+/g, '-')}.json`);
   rmSync(out, { force: true });
   const args = ['run', ...projects.flatMap((p) => ['--project', p]), '--reporter=default', '--reporter=json', `--outputFile.json=${out}`];
-  const r = spawnSync(bin('vitest'), args, { cwd: root, stdio: 'inherit', env: { ...process.env, FORCE_COLOR: process.env.CI ? '0' : '1' } });
+  const r = spawnSync(bin('vitest'), args, { cwd: root, stdio: 'inherit', env: { ...process.env, FORCE_COLOR: process.env.CI ? '0' : '1', ...env } });
   if (!existsSync(out)) {
     outcomes.push({ name, passed: 0, failed: 1, skipped: 0 });
     console.error(`✖ ${name}: vitest exited with ${r.status} before writing results`);
@@ -54,7 +54,9 @@ try {
 }
 
 if (!setupFailed) {
-  if (wants('unit')) vitest('unit', ['unit', 'components']);
+  // the pure code must not depend on the machine's time zone: run it under two very different ones
+  if (wants('unit')) vitest('unit', ['unit', 'components'], { TZ: 'UTC' });
+  if (wants('unit')) vitest('unit under TZ=Pacific/Auckland', ['unit'], { TZ: 'Pacific/Auckland' });
   if (wants('api')) vitest('api', ['api']);
   if (wants('e2e')) vitest('e2e', ['e2e']);
   if (wants('types')) {
