@@ -16,6 +16,7 @@ import { apiNotFound, problemDetails } from './middleware/problem-details';
 import { createGuards, type Guards } from './middleware/auth';
 import { createLimiters, type LimitSettings, type Limiters } from './middleware/rate-limits';
 import type { AuthSettings } from './services/auth.service';
+import { createStorage, type Storage } from './storage';
 import { registerAccountRoutes } from './routes/account.routes';
 import { registerAdminRoutes } from './routes/admin.routes';
 import { registerAuthRoutes } from './routes/auth.routes';
@@ -23,6 +24,9 @@ import { registerCatalogueRoutes } from './routes/catalogue.routes';
 import { registerTeamRoutes } from './routes/team.routes';
 import { registerVehicleRoutes } from './routes/vehicle.routes';
 import { registerHealthRoutes } from './routes/health.routes';
+import { registerOnboardingRoutes } from './routes/onboarding.routes';
+import { registerPartnerRoutes } from './routes/partners.routes';
+import { registerReviewRoutes } from './routes/review.routes';
 import { docsRouter } from './routes/docs.routes';
 
 export interface AppDeps {
@@ -33,10 +37,13 @@ export interface AppDeps {
   /** Signs access tokens; from JWT_SECRET, or generated into var/ in development. */
   jwtSecret: string;
   limits?: LimitSettings;
+  /** Where uploaded documents go; by default the driver the configuration names (tests pass a temporary directory). */
+  storage?: Storage;
 }
 
 /** What route modules and controllers get: the dependencies plus what createApp builds from them. */
 export interface AppContext extends AppDeps {
+  storage: Storage;
   authSettings: AuthSettings;
   limiters: Limiters;
   guards: Guards;
@@ -107,6 +114,7 @@ export function createApp(deps: AppDeps): EmberlineApp {
 
   const context: AppContext = {
     ...deps,
+    storage: deps.storage ?? createStorage(deps.config),
     authSettings: {
       jwtSecret: deps.jwtSecret,
       accessTtlSeconds: deps.config.ACCESS_TOKEN_TTL_SECONDS,
@@ -127,6 +135,9 @@ export function createApp(deps: AppDeps): EmberlineApp {
   registerVehicleRoutes(api, context);
   registerTeamRoutes(api, context);
   registerAdminRoutes(api, context);
+  registerOnboardingRoutes(api, context);
+  registerReviewRoutes(api, context);
+  registerPartnerRoutes(api, context);
   api.router.use(docsRouter(registry, deps.version));
   api.router.use(apiNotFound);
 

@@ -38,6 +38,12 @@ export const EnvSchema = z.object({
   /** Runs the scheduled jobs (outbox sender) in this process; the jobs lock, so several instances may. */
   RUN_SCHEDULER: flag(true),
   MAIL_INTERVAL_SECONDS: z.coerce.number().int().min(1).max(3600).default(5),
+  /** How often approved partners' insurance expiry is checked (reminders, suspensions). */
+  INSURANCE_CHECK_INTERVAL_HOURS: z.coerce.number().min(0.01).max(24 * 7).default(24),
+  /** Where uploaded documents are kept: `local` disk today; S3-compatible storage later. */
+  STORAGE_DRIVER: z.enum(['local']).default('local'),
+  /** Directory of the local storage driver, outside any folder the server serves publicly. */
+  UPLOADS_DIR: z.string().min(1).default('var/uploads').transform((dir) => path.resolve(projectRoot, dir)),
 }).superRefine((c, ctx) => {
   if (c.NODE_ENV === 'production' && !c.JWT_SECRET) ctx.addIssue({ code: 'custom', path: ['JWT_SECRET'], message: 'is required in production' });
   // the cost may only go below 12 to keep the test suite fast

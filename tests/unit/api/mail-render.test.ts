@@ -11,6 +11,14 @@ const samples: { [T in MailTemplate]: MailTemplateData[T] } = {
   invitation: { inviterName: 'Jonas Berger', organisationName: 'Nordlicht Mobile Heating', role: 'technician', link, days: 7 },
   'account-locked': { name: 'Anna', minutes: 15, resetLink: link },
   'password-changed': { name: 'Anna' },
+  'application-submitted': { organisationName: 'Nordlicht Mobile Heating', link },
+  'application-approved': { name: 'Anna', organisationName: 'Nordlicht Mobile Heating', link },
+  'application-changes-requested': { name: 'Anna', organisationName: 'Nordlicht Mobile Heating', message: 'Please upload a readable registration extract.', link },
+  'application-rejected': { name: 'Anna', organisationName: 'Nordlicht Mobile Heating', message: 'The equipment evidence does not show a flashing interface.' },
+  'organisation-suspended': { name: 'Anna', organisationName: 'Nordlicht Mobile Heating', reason: 'insurance expired', link },
+  'organisation-reinstated': { name: 'Anna', organisationName: 'Nordlicht Mobile Heating', link },
+  'insurance-expiring': { name: 'Anna', organisationName: 'Nordlicht Mobile Heating', expiresOn: '2027-03-01', link },
+  'partner-suspended': { organisationName: 'Nordlicht Mobile Heating', reason: 'insurance expired', link },
 };
 const render = <T extends MailTemplate>(template: T, locale = 'en', data: Partial<MailTemplateData[T]> = {}) =>
   renderMail(template, locale, { ...samples[template], ...data } as MailTemplateData[T]);

@@ -1,4 +1,7 @@
 // Runs pending migrations and the idempotent seed; used by npm start, the tests and the CLI.
+import path from 'node:path';
+import { projectRoot, type Config } from '../config';
+import { createStorage, type Storage } from '../storage';
 import { createDataSource, type DbConfig } from './data-source';
 import { runSeed, type FullSeedReport } from './seed';
 
@@ -7,11 +10,17 @@ export interface MigrateReport {
   seed: FullSeedReport | null;
 }
 
-export async function migrateAndSeed(config: DbConfig, o: { seed?: boolean; demo?: boolean; bcryptCost?: number } = {}): Promise<MigrateReport> {
+/** The demo documents go to `o.storage`, else to the storage the configuration names (default var/uploads). */
+export async function migrateAndSeed(
+  config: DbConfig & Partial<Pick<Config, 'STORAGE_DRIVER' | 'UPLOADS_DIR'>>,
+  o: { seed?: boolean; demo?: boolean; bcryptCost?: number; storage?: Storage } = {},
+): Promise<MigrateReport> {
   const ds = await createDataSource(config).initialize();
   try {
     const ran = await ds.runMigrations({ transaction: 'each' });
-    const seed = o.seed === false ? null : await runSeed(ds.manager, { demo: o.demo, bcryptCost: o.bcryptCost });
+    const storage =
+      o.storage ?? createStorage({ STORAGE_DRIVER: config.STORAGE_DRIVER ?? 'local', UPLOADS_DIR: config.UPLOADS_DIR ?? path.resolve(projectRoot, process.env.UPLOADS_DIR ?? 'var/uploads') });
+    const seed = o.seed === false ? null : await runSeed(ds.manager, { demo: o.demo, bcryptCost: o.bcryptCost, storage });
     return { migrationsRun: ran.map((m) => m.name), seed };
   } finally {
     await ds.destroy();

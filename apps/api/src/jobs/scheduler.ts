@@ -1,4 +1,5 @@
-// Runs the scheduled jobs with Bree, each run in its own worker thread: today the mail sender.
+// Runs the scheduled jobs with Bree, each run in its own worker thread: the mail sender and the
+// daily insurance check.
 import { fileURLToPath } from 'node:url';
 import Bree from 'bree';
 import { loadConfig } from '../config';
@@ -49,13 +50,22 @@ export function createScheduler({ env, logger }: SchedulerOptions): Scheduler {
         closeWorkerAfterMs: MAX_RUN_MS,
         worker: { env: workerEnv },
       },
+      {
+        name: 'insurance-expiry',
+        path: RUNNER,
+        // once at start (a restart must not skip a day), then every interval
+        timeout: 0,
+        interval: Math.round(config.INSURANCE_CHECK_INTERVAL_HOURS * 3_600_000),
+        closeWorkerAfterMs: MAX_RUN_MS,
+        worker: { env: workerEnv },
+      },
     ],
   });
 
   return {
     async start() {
       await bree.start();
-      log.info({ jobs: ['send-mail'], mailIntervalSeconds: config.MAIL_INTERVAL_SECONDS }, 'scheduler started');
+      log.info({ jobs: ['send-mail', 'insurance-expiry'], mailIntervalSeconds: config.MAIL_INTERVAL_SECONDS, insuranceCheckIntervalHours: config.INSURANCE_CHECK_INTERVAL_HOURS }, 'scheduler started');
     },
     async stop() {
       await bree.stop();

@@ -1,12 +1,14 @@
 // Declares an API route once: Express handler, zod validation and its OpenAPI entry together.
 import express, { type Request, type Response, type NextFunction, type RequestHandler } from 'express';
+import multer from 'multer';
 import type { OpenAPIRegistry, RouteConfig } from '@asteasolutions/zod-to-openapi';
 
 type RouteParameter = NonNullable<RouteConfig['request']>['query'];
+type RequestBody = NonNullable<RouteConfig['request']>['body'];
 import { z } from 'zod';
 import { ProblemDetailsSchema, type FieldError } from '@emberline/domain';
 import type { Role } from '@emberline/domain';
-import { ValidationFailed } from './errors';
+import { HttpError, PayloadTooLarge, ValidationFailed } from './errors';
 import { ANONYMOUS, type Actor } from './context';
 import type { Guards } from '../middleware/auth';
 
@@ -22,9 +24,14 @@ export interface RouteSpec<Q extends AnyObject, P extends AnyObject, B extends z
   tags: string[];
   query?: Q;
   params?: P;
-  body?: B;
-  /** Schema of the success body, `{ data, meta? }`. */
-  response: R;
+  /** The JSON body, or the text fields of a `multipart` upload; a function builds it per request (e.g. for "today"). */
+  body?: B | (() => B);
+  /** A multipart/form-data upload of one file (kept in memory, at most `maxBytes`) plus the text fields in `body`. */
+  multipart?: { fileField: string; maxBytes: number };
+  /** Schema of the success body, `{ data, meta? }`; not used when the route `produces` a file. */
+  response?: R;
+  /** The route answers with a file of one of these content types (the handler streams it), not JSON. */
+  produces?: readonly string[];
   status?: 200 | 201 | 202;
   /** Rate limiters and other middleware, run first. */
   before?: RequestHandler[];
@@ -45,6 +52,8 @@ export interface RouteInput<Q, P, B> {
   req: Request;
   res: Response;
   actor: Actor;
+  /** The uploaded file of a `multipart` route (validation guarantees it is there). */
+  file: Express.Multer.File | undefined;
 }
 
 export function toFieldErrors(error: z.ZodError, prefix?: string): FieldError[] {
@@ -61,10 +70,46 @@ const problemDescriptions: Record<number, string> = {
   403: 'Not allowed',
   404: 'Not found',
   409: 'Conflict',
+  413: 'The upload is too large',
+  415: 'The file type is not accepted',
   429: 'Too many requests',
   500: 'Unexpected error',
   503: 'Temporarily unavailable',
 };
+
+/** Runs multer for one file and turns its errors into problem details (413 for a file too large). */
+function multipartUpload(spec: { fileField: string; maxBytes: number }): RequestHandler {
+  const parse = multer({
+    storage: multer.memoryStorage(),
+    // browsers send file names as UTF-8 without saying so
+    defParamCharset: 'utf8',
+    limits: { fileSize: spec.maxBytes, files: 1, fields: 20, fieldSize: 4096, parts: 24 },
+  }).single(spec.fileField);
+  return (req, res, next) => {
+    parse(req, res, (err?: unknown) => {
+      if (!err) return next();
+      if (err instanceof multer.MulterError) {
+        if (err.code === 'LIMIT_FILE_SIZE') {
+          return next(PayloadTooLarge(`The file is larger than ${Math.round(spec.maxBytes / (1024 * 1024))} MB. Upload a smaller scan or photo.`));
+        }
+        const path = err.code === 'LIMIT_UNEXPECTED_FILE' || err.code === 'LIMIT_FILE_COUNT' ? spec.fileField : (err.field ?? spec.fileField);
+        return next(ValidationFailed('The upload could not be read.', [{ path, message: `${err.message}: send one file in the "${spec.fileField}" field` }]));
+      }
+      if (err instanceof HttpError) return next(err);
+      next(new HttpError('BAD_REQUEST', 400, 'The request could not be understood', 'The multipart body could not be read.'));
+    });
+  };
+}
+
+/** The OpenAPI schema of a multipart body: the text fields plus the binary file. */
+function multipartSchema(fields: z.ZodType | undefined, fileField: string) {
+  const json = (fields ? z.toJSONSchema(fields, { io: 'input', unrepresentable: 'any' }) : {}) as { properties?: Record<string, unknown>; required?: string[] };
+  return {
+    type: 'object' as const,
+    properties: { ...(json.properties ?? {}), [fileField]: { type: 'string' as const, format: 'binary' } },
+    required: [...(json.required ?? []), fileField],
+  };
+}
 
 export class ApiRouter {
   readonly router = express.Router();
@@ -95,21 +140,24 @@ export class ApiRouter {
       };
       const params = take(spec.params, req.params, 'params');
       const query = take(spec.query, req.query, 'query');
-      const body = take(spec.body, req.body, 'body');
+      const body = take(typeof spec.body === 'function' ? spec.body() : spec.body, req.body, 'body');
+      if (spec.multipart && !req.file) errors.push({ path: spec.multipart.fileField, message: 'Choose a file to upload' });
       if (errors.length) return next(ValidationFailed('Please correct the highlighted fields.', errors));
       const actor = req.actor ?? ANONYMOUS;
-      const data = await handler({ query, params, body, req, res, actor } as RouteInput<z.infer<Q>, z.infer<P>, z.infer<B>>);
+      const data = await handler({ query, params, body, req, res, actor, file: req.file } as RouteInput<z.infer<Q>, z.infer<P>, z.infer<B>>);
       if (res.headersSent) return;
       // a handler may set its own status (e.g. 503 from health); otherwise use the declared one
       if (res.statusCode === 200 && spec.status) res.status(spec.status);
       res.json(data);
     };
     const needsAuth = spec.auth || spec.org || !!spec.roles;
+    // guards first: nobody's upload is read before we know who they are and where they may write
     const chain: RequestHandler[] = [
       ...(spec.before ?? []),
       ...(needsAuth ? [this.guards.authenticate] : []),
       ...(spec.org ? [this.guards.orgScope] : []),
       ...(spec.roles ? [this.guards.requireRoles(spec.roles)] : []),
+      ...(spec.multipart ? [multipartUpload(spec.multipart)] : []),
     ];
     this.router[spec.method](spec.path, ...chain, validateAndRun);
   }
@@ -117,10 +165,20 @@ export class ApiRouter {
   private document(spec: RouteSpec<AnyObject, AnyObject, z.ZodType, z.ZodType>): void {
     const openApiPath = (this.mountPath + spec.path).replace(/:([A-Za-z0-9_]+)/g, '{$1}');
     const needsAuth = spec.auth || spec.org || !!spec.roles;
-    const problems = new Set([400, 500, ...(needsAuth ? [401] : []), ...(spec.roles ? [403] : []), ...(spec.org ? [404] : []), ...(spec.before?.length ? [429] : []), ...(spec.problems ?? [])]);
+    const problems = new Set([400, 500, ...(needsAuth ? [401] : []), ...(spec.roles ? [403] : []), ...(spec.org ? [404] : []), ...(spec.before?.length ? [429] : []), ...(spec.multipart ? [413] : []), ...(spec.problems ?? [])]);
+    if (!spec.response && !spec.produces) throw new Error(`${spec.method} ${spec.path} declares neither a response schema nor the files it produces`);
+    const success = spec.produces
+      ? Object.fromEntries(spec.produces.map((type) => [type, { schema: { type: 'string' as const, format: 'binary' } }]))
+      : { 'application/json': { schema: spec.response! } };
     const responses: RouteConfig['responses'] = {
-      [spec.status ?? 200]: { description: 'Success', content: { 'application/json': { schema: spec.response } } },
+      [spec.status ?? 200]: { description: spec.produces ? 'The file' : 'Success', content: success },
     };
+    const body = typeof spec.body === 'function' ? spec.body() : spec.body;
+    const requestBody = spec.multipart
+      ? ({ content: { 'multipart/form-data': { schema: multipartSchema(body, spec.multipart.fileField) } } } as RequestBody)
+      : body
+        ? { content: { 'application/json': { schema: body } } }
+        : undefined;
     for (const status of [...problems].sort((a, b) => a - b)) {
       responses[status] = { description: problemDescriptions[status] ?? 'Problem', content: problemContent };
     }
@@ -134,7 +192,7 @@ export class ApiRouter {
       request: {
         query: spec.query as RouteParameter,
         params: spec.params as RouteParameter,
-        body: spec.body ? { content: { 'application/json': { schema: spec.body } } } : undefined,
+        body: requestBody,
       },
       responses,
     });

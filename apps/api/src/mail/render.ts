@@ -9,6 +9,17 @@ export interface MailTemplateData {
   invitation: { inviterName: string; organisationName: string; role: string; link: string; days: number };
   'account-locked': { name: string; minutes: number; resetLink: string };
   'password-changed': { name: string };
+  /** To network admins: an application waits in the review queue. */
+  'application-submitted': { organisationName: string; link: string };
+  'application-approved': { name: string; organisationName: string; link: string };
+  'application-changes-requested': { name: string; organisationName: string; message: string; link: string };
+  'application-rejected': { name: string; organisationName: string; message: string };
+  'organisation-suspended': { name: string; organisationName: string; reason: string; link: string };
+  'organisation-reinstated': { name: string; organisationName: string; link: string };
+  /** `expiresOn` is a date, YYYY-MM-DD. */
+  'insurance-expiring': { name: string; organisationName: string; expiresOn: string; link: string };
+  /** To network admins: a partner was suspended by the system (e.g. its insurance expired). */
+  'partner-suspended': { organisationName: string; reason: string; link: string };
 }
 export type MailTemplate = keyof MailTemplateData;
 
@@ -30,12 +41,22 @@ export const ACTION_LINK: { readonly [T in MailTemplate]: (keyof MailTemplateDat
   invitation: 'link',
   'account-locked': 'resetLink',
   'password-changed': null,
+  'application-submitted': 'link',
+  'application-approved': 'link',
+  'application-changes-requested': 'link',
+  'application-rejected': null,
+  'organisation-suspended': 'link',
+  'organisation-reinstated': 'link',
+  'insurance-expiring': 'link',
+  'partner-suspended': 'link',
 };
 export const MAIL_TEMPLATES = Object.keys(ACTION_LINK) as MailTemplate[];
 
 const LINK_FIELDS = new Set(['link', 'resetLink']);
 /** Durations are numbers in the data and read as "30 minutes" / "30 Minuten" in the text. */
 const DURATION_UNITS: Record<string, 'minute' | 'day'> = { minutes: 'minute', days: 'day' };
+/** Calendar dates are YYYY-MM-DD in the data and read as "1 March 2027" / "1. März 2027". */
+const DATE_FIELDS = new Set(['expiresOn']);
 
 const colour = { text: '#1e293b', muted: '#64748b', secondary: '#334155', ember: '#c2410c', page: '#f8fafc', line: '#e2e8f0', white: '#ffffff' };
 // the same stack as the apps' theme, so the mail reads like the product
@@ -77,6 +98,9 @@ function formatValues(locale: MailLocale, messages: MailMessages, data: Record<s
     else if (unit && typeof value === 'number') {
       values[key] = new Intl.NumberFormat(locale, { style: 'unit', unit, unitDisplay: 'long' }).format(value);
     } else if (key === 'role' && typeof value === 'string') values[key] = messages.roles[value] ?? value;
+    else if (DATE_FIELDS.has(key) && typeof value === 'string' && /^\d{4}-\d{2}-\d{2}$/.test(value)) {
+      values[key] = new Intl.DateTimeFormat(locale, { dateStyle: 'long', timeZone: 'UTC' }).format(new Date(`${value}T00:00:00Z`));
+    }
     else values[key] = String(value);
   }
   return values;

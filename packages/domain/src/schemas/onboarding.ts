@@ -3,7 +3,7 @@
 import { checkVAT, countries as vatCountries } from 'jsvat';
 import { z } from 'zod';
 import { CatalogueCodeSchema, CapabilityCategorySchema } from './catalogue';
-import { IdSchema, OrganisationStatusSchema, type OrganisationStatus } from './accounts';
+import { AuditEntrySchema, IdSchema, OrganisationStatusSchema, type OrganisationStatus } from './accounts';
 
 /** Countries the network works in (ISO 3166-1 alpha-2). */
 export const NETWORK_COUNTRIES = ['AT', 'DE', 'CH', 'IT', 'SI', 'SE', 'NO', 'DK', 'FI'] as const;
@@ -151,6 +151,16 @@ export const ReviewChecklistSchema = z.object({
   identityChecked: z.boolean(),
 });
 export type ReviewChecklist = z.infer<typeof ReviewChecklistSchema>;
+
+/** What a network admin sees when reviewing one application: it, the review so far and its history. */
+export const ApplicationReviewSchema = z.object({
+  application: ApplicationSchema,
+  checklist: ReviewChecklistSchema.nullable(),
+  internalNotes: z.string(),
+  /** The organisation's audit log, newest first. */
+  history: z.array(AuditEntrySchema),
+});
+export type ApplicationReview = z.infer<typeof ApplicationReviewSchema>;
 
 export const ReviewUpdateSchema = z.object({ checklist: ReviewChecklistSchema, internalNotes: z.string().max(4000, 'Use at most 4000 characters') });
 

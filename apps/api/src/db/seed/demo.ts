@@ -1,21 +1,91 @@
-// Seeds the demo scenario's people and organisations. Idempotent: looks people up by e-mail
-// and organisations by name, and adds only what is missing.
+// Seeds the demo scenario's people and organisations, and the organisations' applications
+// (profile, equipment, documents). Idempotent: looks people up by e-mail and organisations by
+// name, and adds only what is missing.
+import { createHash } from 'node:crypto';
 import bcrypt from 'bcryptjs';
-import type { EntityManager } from 'typeorm';
-import { MembershipEntity, OrganisationEntity, UserAccountEntity, VehicleEntity } from '../../entities';
+import { In, type EntityManager } from 'typeorm';
+import {
+  CapabilityEntity,
+  MembershipEntity,
+  OrganisationCapabilityEntity,
+  OrganisationEntity,
+  PartnerDocumentEntity,
+  PartnerProfileEntity,
+  UserAccountEntity,
+  VehicleEntity,
+} from '../../entities';
 import { newId } from '../../lib/secure-token';
-import { DEMO_NETWORK_ADMINS, DEMO_ORGANISATIONS, DEMO_OWNERS, DEMO_PASSWORD, DEMO_VEHICLES, type DemoPerson } from './demo-data';
+import type { Storage } from '../../storage';
+import { DEMO_NETWORK_ADMINS, DEMO_ORGANISATIONS, DEMO_OWNERS, DEMO_PASSWORD, DEMO_VEHICLES, type DemoOrganisation, type DemoPerson } from './demo-data';
+import { minimalPdf } from './minimal-pdf';
 
 export interface DemoSeedReport {
   usersAdded: number;
   organisationsAdded: number;
+  profilesAdded: number;
+  documentsAdded: number;
 }
 
-export async function seedDemo(manager: EntityManager, bcryptCost: number): Promise<DemoSeedReport> {
+const DAY_MS = 86_400_000;
+const dayFrom = (today: Date, days: number) => new Date(today.getTime() + days * DAY_MS).toISOString().slice(0, 10);
+
+/** Profile, claimed equipment and documents of one demo organisation, each only if it has none yet. */
+async function seedApplication(
+  manager: EntityManager,
+  org: OrganisationEntity,
+  demo: DemoOrganisation,
+  o: { storage?: Storage; now: Date; adminId: string | null },
+): Promise<{ profile: boolean; documents: number }> {
+  const added = { profile: false, documents: 0 };
+  const profiles = manager.getRepository(PartnerProfileEntity);
+  if (!(await profiles.existsBy({ organisationId: org.id }))) {
+    await profiles.insert({ organisationId: org.id, tradingName: demo.name, ...demo.profile, submittedAt: new Date(o.now.getTime() + demo.submittedDays * DAY_MS) });
+    added.profile = true;
+  }
+  const claims = manager.getRepository(OrganisationCapabilityEntity);
+  if (!(await claims.existsBy({ organisationId: org.id }))) {
+    const capabilities = await manager.getRepository(CapabilityEntity).findBy({ code: In(demo.capabilities) });
+    if (capabilities.length !== demo.capabilities.length) throw new Error(`Seed: ${demo.name} claims a capability the catalogue does not have`);
+    await claims.insert(capabilities.map((c) => ({ organisationId: org.id, capabilityId: c.id, notes: null, serial: null })));
+  }
+  const documents = manager.getRepository(PartnerDocumentEntity);
+  if (o.storage && !(await documents.existsBy({ organisationId: org.id }))) {
+    const insuranceExpires = dayFrom(o.now, demo.insuranceDays);
+    const files = [
+      { kind: 'insurance' as const, fileName: 'liability-insurance.pdf', expiresOn: insuranceExpires, lines: [`${demo.profile.legalName}`, 'Certificate of liability insurance (demo)', `Valid until ${insuranceExpires}`] },
+      { kind: 'registration' as const, fileName: 'business-registration.pdf', expiresOn: null, lines: [`${demo.profile.legalName}`, 'Business registration extract (demo)', `${demo.profile.street}, ${demo.profile.postalCode} ${demo.profile.city}`] },
+    ];
+    for (const file of files) {
+      const bytes = minimalPdf(file.lines);
+      const storageKey = await o.storage.put(bytes);
+      await documents.insert({
+        id: newId(),
+        organisationId: org.id,
+        kind: file.kind,
+        fileName: file.fileName,
+        storageKey,
+        contentType: 'application/pdf',
+        sizeBytes: bytes.length,
+        sha256: createHash('sha256').update(bytes).digest('hex'),
+        expiresOn: file.expiresOn,
+        capabilityCode: null,
+        uploadedBy: o.adminId,
+        createdAt: new Date(o.now.getTime() + (demo.submittedDays - 1) * DAY_MS),
+        deletedAt: null,
+      });
+      added.documents++;
+    }
+  }
+  return added;
+}
+
+/** `storage` receives the demo documents; without it they are left out. */
+export async function seedDemo(manager: EntityManager, bcryptCost: number, o: { storage?: Storage; now?: Date } = {}): Promise<DemoSeedReport> {
   const users = manager.getRepository(UserAccountEntity);
   const orgs = manager.getRepository(OrganisationEntity);
   const memberships = manager.getRepository(MembershipEntity);
-  const report: DemoSeedReport = { usersAdded: 0, organisationsAdded: 0 };
+  const report: DemoSeedReport = { usersAdded: 0, organisationsAdded: 0, profilesAdded: 0, documentsAdded: 0 };
+  const now = o.now ?? new Date();
   let passwordHash: string | undefined;
 
   const created = new Set<string>();
@@ -57,12 +127,17 @@ export async function seedDemo(manager: EntityManager, bcryptCost: number): Prom
       org = await orgs.save({ id: newId(), name: demo.name, status: demo.status, statusReason: demo.statusReason ?? null });
       report.organisationsAdded++;
     }
+    let adminId: string | null = null;
     for (const member of demo.members) {
       const user = await person(member, {});
+      if (member.role === 'partner_admin') adminId ??= user.id;
       if (!(await memberships.existsBy({ organisationId: org.id, userId: user.id }))) {
         await memberships.insert({ organisationId: org.id, userId: user.id, role: member.role });
       }
     }
+    const added = await seedApplication(manager, org, demo, { storage: o.storage, now, adminId });
+    if (added.profile) report.profilesAdded++;
+    report.documentsAdded += added.documents;
   }
   return report;
 }

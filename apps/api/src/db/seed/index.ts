@@ -1,6 +1,7 @@
 // Seeds what every environment needs and the invented demo scenario. Idempotent: running it
 // twice adds nothing twice.
 import type { EntityManager } from 'typeorm';
+import type { Storage } from '../../storage';
 import { CapabilityEntity, ServiceTypeEntity } from '../../entities';
 import { CAPABILITIES, SERVICE_TYPES } from './catalogue-data';
 import { seedDemo, type DemoSeedReport } from './demo';
@@ -39,11 +40,29 @@ export async function seedCatalogue(manager: EntityManager): Promise<SeedReport>
 
 export interface FullSeedReport extends SeedReport, DemoSeedReport {}
 
-/** The catalogue always; the demo scenario unless `demo` is false (production). */
-export async function runSeed(manager: EntityManager, o: { demo?: boolean; bcryptCost?: number } = {}): Promise<FullSeedReport> {
-  return manager.transaction(async (tx) => {
-    const catalogue = await seedCatalogue(tx);
-    const demo = o.demo === false ? { usersAdded: 0, organisationsAdded: 0 } : await seedDemo(tx, o.bcryptCost ?? 12);
-    return { ...catalogue, ...demo };
-  });
+/**
+ * The catalogue always; the demo scenario unless `demo` is false (production). Demo documents go
+ * to `storage` (left out without one); if the seed fails, the files it stored are removed again.
+ */
+export async function runSeed(manager: EntityManager, o: { demo?: boolean; bcryptCost?: number; storage?: Storage } = {}): Promise<FullSeedReport> {
+  const stored: string[] = [];
+  const storage: Storage | undefined = o.storage && {
+    put: async (data) => {
+      const key = await o.storage!.put(data);
+      stored.push(key);
+      return key;
+    },
+    get: (key) => o.storage!.get(key),
+    delete: (key) => o.storage!.delete(key),
+  };
+  try {
+    return await manager.transaction(async (tx) => {
+      const catalogue = await seedCatalogue(tx);
+      const demo = o.demo === false ? { usersAdded: 0, organisationsAdded: 0, profilesAdded: 0, documentsAdded: 0 } : await seedDemo(tx, o.bcryptCost ?? 12, { storage });
+      return { ...catalogue, ...demo };
+    });
+  } catch (err) {
+    await Promise.allSettled(stored.map((key) => o.storage!.delete(key)));
+    throw err;
+  }
 }

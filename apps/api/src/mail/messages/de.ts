@@ -64,6 +64,79 @@ const de: MailMessages = {
         'Wenn nicht, wählen Sie bitte sofort über „Passwort vergessen?“ auf der Anmeldeseite ein neues Passwort.',
       ],
     },
+    'application-submitted': {
+      subject: 'Neue Partnerbewerbung: {organisationName}',
+      heading: '{organisationName} hat sich beworben',
+      greeting: 'Hallo,',
+      paragraphs: ['{organisationName} hat die Bewerbung für das Netzwerk eingereicht. Sie wartet in der Prüfliste.'],
+      action: 'Bewerbung prüfen',
+    },
+    'application-approved': {
+      subject: '{organisationName} ist bei Emberline freigegeben',
+      heading: 'Willkommen im Netzwerk',
+      greeting: 'Hallo {name},',
+      paragraphs: [
+        'Gute Nachricht: Wir haben die Bewerbung von {organisationName} geprüft und freigegeben.',
+        'Fahrzeughalter finden Sie jetzt im Verzeichnis. Richten Sie Ihre Leistungen, Preise und Arbeitszeiten ein, damit man Sie buchen kann.',
+      ],
+      action: 'Console öffnen',
+    },
+    'application-changes-requested': {
+      subject: 'Ihre Emberline-Bewerbung braucht noch Änderungen',
+      heading: 'Bitte noch ein paar Änderungen',
+      greeting: 'Hallo {name},',
+      paragraphs: [
+        'Wir haben die Bewerbung von {organisationName} angesehen und brauchen noch ein paar Änderungen, bevor wir sie freigeben können:',
+        '{message}',
+        'Unsere Hinweise finden Sie neben den betroffenen Feldern. Ändern Sie die Angaben und reichen Sie die Bewerbung erneut ein.',
+      ],
+      action: 'Bewerbung bearbeiten',
+    },
+    'application-rejected': {
+      subject: 'Ihre Emberline-Bewerbung',
+      heading: 'Wir können Ihre Bewerbung nicht freigeben',
+      greeting: 'Hallo {name},',
+      paragraphs: [
+        'Danke für die Bewerbung von {organisationName}. Nach der Prüfung können wir sie leider nicht freigeben:',
+        '{message}',
+        'Wenn Sie Fragen zu dieser Entscheidung haben, wenden Sie sich über die Console an das Netzwerk-Team.',
+      ],
+    },
+    'organisation-suspended': {
+      subject: '{organisationName} ist bei Emberline pausiert',
+      heading: 'Ihre Organisation ist pausiert',
+      greeting: 'Hallo {name},',
+      paragraphs: [
+        '{organisationName} erscheint vorerst nicht mehr im Verzeichnis und kann keine neuen Buchungen annehmen.',
+        'Grund: {reason}',
+        'Sobald der Grund behoben ist, prüfen wir das und schalten Sie wieder frei.',
+      ],
+      action: 'Console öffnen',
+    },
+    'organisation-reinstated': {
+      subject: '{organisationName} ist bei Emberline wieder aktiv',
+      heading: 'Sie sind wieder im Verzeichnis',
+      greeting: 'Hallo {name},',
+      paragraphs: ['{organisationName} ist wieder aktiv: Fahrzeughalter finden und buchen Sie im Verzeichnis.'],
+      action: 'Console öffnen',
+    },
+    'insurance-expiring': {
+      subject: 'Die Versicherung von {organisationName} läuft am {expiresOn} ab',
+      heading: 'Ihr Versicherungsnachweis läuft bald ab',
+      greeting: 'Hallo {name},',
+      paragraphs: [
+        'Der Haftpflicht-Versicherungsnachweis, den wir für {organisationName} haben, läuft am {expiresOn} ab.',
+        'Bitte laden Sie den verlängerten Nachweis vorher hoch. Ohne gültige Versicherung wird Ihre Organisation pausiert und kann keine Buchungen annehmen.',
+      ],
+      action: 'Neuen Nachweis hochladen',
+    },
+    'partner-suspended': {
+      subject: '{organisationName} wurde automatisch gesperrt',
+      heading: '{organisationName} wurde gesperrt',
+      greeting: 'Hallo,',
+      paragraphs: ['{organisationName} wurde gesperrt und erscheint nicht mehr im Verzeichnis.', 'Grund: {reason}'],
+      action: 'Bewerbung öffnen',
+    },
   },
 };
 

@@ -27,6 +27,14 @@ export interface MailMessages {
     invitation: TemplateMessages;
     'account-locked': TemplateMessages;
     'password-changed': TemplateMessages;
+    'application-submitted': TemplateMessages;
+    'application-approved': TemplateMessages;
+    'application-changes-requested': TemplateMessages;
+    'application-rejected': TemplateMessages;
+    'organisation-suspended': TemplateMessages;
+    'organisation-reinstated': TemplateMessages;
+    'insurance-expiring': TemplateMessages;
+    'partner-suspended': TemplateMessages;
   };
 }
 
@@ -92,6 +100,79 @@ const en: MailMessages = {
         'If you did this, there is nothing more to do.',
         'If you did not, please choose a new password straight away with "Forgot password?" on the sign-in page.',
       ],
+    },
+    'application-submitted': {
+      subject: 'New partner application: {organisationName}',
+      heading: '{organisationName} has applied',
+      greeting: 'Hello,',
+      paragraphs: ['{organisationName} has submitted its application to join the network. It is waiting in the review queue.'],
+      action: 'Review the application',
+    },
+    'application-approved': {
+      subject: '{organisationName} is approved on Emberline',
+      heading: 'Welcome to the network',
+      greeting: 'Hello {name},',
+      paragraphs: [
+        'Good news: we have checked the application of {organisationName} and approved it.',
+        'Van owners can now find you in the Directory. Set up your services, prices and working hours so they can book you.',
+      ],
+      action: 'Open the Console',
+    },
+    'application-changes-requested': {
+      subject: 'Your Emberline application needs a few changes',
+      heading: 'A few changes, please',
+      greeting: 'Hello {name},',
+      paragraphs: [
+        'We have looked at the application of {organisationName} and need a few changes before we can approve it:',
+        '{message}',
+        'You will find our notes next to the fields concerned. Make the changes and submit the application again.',
+      ],
+      action: 'Edit the application',
+    },
+    'application-rejected': {
+      subject: 'Your Emberline application',
+      heading: 'We cannot approve your application',
+      greeting: 'Hello {name},',
+      paragraphs: [
+        'Thank you for applying with {organisationName}. After checking the application we are not able to approve it:',
+        '{message}',
+        'If you have questions about this decision, contact the network team through the Console.',
+      ],
+    },
+    'organisation-suspended': {
+      subject: '{organisationName} is paused on Emberline',
+      heading: 'Your organisation is paused',
+      greeting: 'Hello {name},',
+      paragraphs: [
+        '{organisationName} no longer appears in the Directory and cannot take new bookings for now.',
+        'Reason: {reason}',
+        'Once the reason is resolved, we will check it and reinstate you.',
+      ],
+      action: 'Open the Console',
+    },
+    'organisation-reinstated': {
+      subject: '{organisationName} is active on Emberline again',
+      heading: 'You are back in the Directory',
+      greeting: 'Hello {name},',
+      paragraphs: ['{organisationName} is active again: van owners can find and book you in the Directory.'],
+      action: 'Open the Console',
+    },
+    'insurance-expiring': {
+      subject: 'The insurance of {organisationName} expires on {expiresOn}',
+      heading: 'Your insurance certificate expires soon',
+      greeting: 'Hello {name},',
+      paragraphs: [
+        'The liability insurance certificate we hold for {organisationName} expires on {expiresOn}.',
+        'Please upload the renewed certificate before then. Without valid insurance your organisation is paused and cannot take bookings.',
+      ],
+      action: 'Upload the new certificate',
+    },
+    'partner-suspended': {
+      subject: '{organisationName} was suspended automatically',
+      heading: '{organisationName} was suspended',
+      greeting: 'Hello,',
+      paragraphs: ['{organisationName} was suspended and no longer appears in the Directory.', 'Reason: {reason}'],
+      action: 'Open the application',
     },
   },
 };
