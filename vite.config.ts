@@ -42,6 +42,11 @@ function consoleFallback(): Plugin {
 export default defineConfig({
   root,
   plugins: [perAppAlias(), vue(), consoleFallback()],
+  resolve: {
+    // vue-leaflet (with useGlobalLeaflet=false) loads Leaflet's ES build, but still names plain
+    // "leaflet" for its global mode; pointing both at the ES build keeps one Leaflet chunk.
+    alias: [{ find: /^leaflet$/, replacement: 'leaflet/dist/leaflet-src.esm.js' }],
+  },
   server: {
     host: '127.0.0.1',
     port: Number(process.env.VITE_PORT ?? 5173),

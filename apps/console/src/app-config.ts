@@ -5,4 +5,7 @@ export const appConfig = Object.freeze({
   apiBaseUrl: (import.meta.env.VITE_API_BASE_URL as string | undefined) ?? '',
   base: '/console/',
   directoryUrl: '/',
+  /** Optional tile server for maps; without it maps draw the offline country outlines. */
+  mapTileUrl: (import.meta.env.VITE_MAP_TILE_URL as string | undefined) || undefined,
+  mapTileAttribution: (import.meta.env.VITE_MAP_TILE_ATTRIBUTION as string | undefined) || undefined,
 });

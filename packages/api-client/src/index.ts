@@ -6,3 +6,4 @@ export * from './accounts';
 export * from './account-api';
 export * from './vehicles';
 export * from './session-clients';
+export * from './onboarding';

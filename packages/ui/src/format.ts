@@ -53,3 +53,19 @@ export function formatDate(
 ): string {
   return new Intl.DateTimeFormat(toIntlLocale(locale), options).format(new Date(value));
 }
+
+/** A country's name from its ISO 3166-1 alpha-2 code, in the given locale ("AT" -> "Austria"). */
+export function formatRegion(code: string, locale: string): string {
+  try {
+    return new Intl.DisplayNames([toIntlLocale(locale)], { type: 'region' }).of(code) ?? code;
+  } catch {
+    return code;
+  }
+}
+
+/** File sizes in kB/MB with Intl units ("2.4 MB"). */
+export function formatBytes(bytes: number, locale: string): string {
+  const mb = bytes / (1024 * 1024);
+  const [value, unit] = mb >= 1 ? [mb, 'megabyte'] : [Math.max(bytes / 1024, 0.1), 'kilobyte'];
+  return new Intl.NumberFormat(toIntlLocale(locale), { style: 'unit', unit, unitDisplay: 'short', maximumFractionDigits: 1 }).format(value);
+}

@@ -1,0 +1,90 @@
+// Admin review of one application: only the decisions its status allows; request changes sends
+// the message and per-field notes.
+import { beforeEach, describe, expect, it, vi } from 'vitest';
+import { flushPromises, mount } from '@vue/test-utils';
+import { createPinia, setActivePinia } from 'pinia';
+import { createMemoryHistory } from 'vue-router';
+import type { OrganisationStatus } from '@emberline/domain';
+import { refreshSession } from '@/api/auth';
+import { decide, getApplicationReview } from '@/api/onboarding';
+import { i18n } from '@/locales';
+import { createAppRouter } from '@/router';
+import ReviewPage from '@/views/admin/application-review/index.vue';
+import { ORG_A, me, session } from './fixtures';
+import { application, business } from './onboarding-fixtures';
+
+vi.mock('@/api/auth', () => ({ refreshSession: vi.fn(), signIn: vi.fn(), signOut: vi.fn() }));
+vi.mock('@/api/onboarding', () => ({ getApplicationReview: vi.fn(), saveReview: vi.fn(), decide: vi.fn(), fetchDocumentBlob: vi.fn(), deleteDocument: vi.fn() }));
+vi.mock('@emberline/ui/area-map', () => ({ __esModule: true, default: { name: 'AreaMapStub', render: () => null } }));
+
+async function mountReview(status: OrganisationStatus) {
+  vi.mocked(refreshSession).mockResolvedValue(session(me({ roles: ['network_admin'] })));
+  vi.mocked(getApplicationReview).mockResolvedValue({ application: application({ status, business, editable: false }), checklist: null, internalNotes: '', history: [] });
+  const router = createAppRouter(createMemoryHistory());
+  await router.push(`/admin/applications/${ORG_A}`);
+  await router.isReady();
+  const wrapper = mount(ReviewPage, { props: { orgId: ORG_A }, global: { plugins: [router, i18n] }, attachTo: document.body });
+  await flushPromises();
+  return wrapper;
+}
+
+const offered = (wrapper: Awaited<ReturnType<typeof mountReview>>) => wrapper.findAll('[data-decision]').map((r) => r.attributes('data-decision'));
+
+describe('Application review', () => {
+  beforeEach(() => {
+    localStorage.clear();
+    document.body.innerHTML = '';
+    setActivePinia(createPinia());
+    vi.clearAllMocks();
+  });
+
+  it('offers approve, request changes and reject for a submitted application', async () => {
+    const wrapper = await mountReview('submitted');
+    expect(getApplicationReview).toHaveBeenCalledWith(ORG_A, expect.anything());
+    expect(offered(wrapper)).toEqual(['approve', 'request_changes', 'reject']);
+  });
+
+  it('offers only suspend for an approved organisation and only reinstate for a suspended one', async () => {
+    expect(offered(await mountReview('approved'))).toEqual(['suspend']);
+    document.body.innerHTML = '';
+    expect(offered(await mountReview('suspended'))).toEqual(['reinstate']);
+  });
+
+  it('offers no decision for a draft', async () => {
+    const wrapper = await mountReview('draft');
+    expect(offered(wrapper)).toEqual([]);
+    expect(wrapper.find('[data-testid="no-decisions"]').exists()).toBe(true);
+  });
+
+  it('sends request changes with the message and the per-field notes after confirming', async () => {
+    vi.mocked(decide).mockResolvedValue({ application: application({ status: 'changes_requested', business, editable: false }), checklist: null, internalNotes: '', history: [] });
+    const wrapper = await mountReview('in_review');
+    await wrapper.find('[data-decision="request_changes"] input').setValue(true);
+    await wrapper.find('[data-testid="decision-message"]').setValue('Two things need fixing.');
+    await wrapper.find('[data-testid="add-note"]').trigger('click');
+    const row = wrapper.find('[data-testid="field-note-row"]');
+    await row.find('select').setValue('business.vatId');
+    await row.find('input').setValue('Add the VAT ID with its country prefix');
+    await wrapper.find('[data-testid="send-decision"]').trigger('click');
+    await flushPromises();
+    expect(decide).not.toHaveBeenCalled();
+    document.body.querySelector<HTMLButtonElement>('.ant-popconfirm .ant-btn-primary')!.click();
+    await flushPromises();
+    expect(decide).toHaveBeenCalledWith(ORG_A, {
+      decision: 'request_changes',
+      message: 'Two things need fixing.',
+      fields: { 'business.vatId': 'Add the VAT ID with its country prefix' },
+    });
+  });
+
+  it('refuses a rejection without a reason', async () => {
+    const wrapper = await mountReview('submitted');
+    await wrapper.find('[data-decision="reject"] input').setValue(true);
+    await wrapper.find('[data-testid="send-decision"]').trigger('click');
+    await flushPromises();
+    document.body.querySelector<HTMLButtonElement>('.ant-popconfirm .ant-btn-primary')!.click();
+    await flushPromises();
+    expect(decide).not.toHaveBeenCalled();
+    expect(wrapper.text()).toContain('Tell the partner why');
+  });
+});
