@@ -7,3 +7,6 @@ export * from './schemas/preheat';
 export * from './schemas/accounts';
 export * from './schemas/vehicles';
 export * from './schemas/onboarding';
+export * from './geo';
+export * from './slots';
+export * from './schemas/hours';

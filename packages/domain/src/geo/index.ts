@@ -1,0 +1,3 @@
+// Geography for bookings: distances, service areas, bounding boxes and travel-time estimates.
+export * from './distance';
+export * from './travel';
