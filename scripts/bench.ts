@@ -1,6 +1,6 @@
 // `npm run bench`: the benchmarks the issues name. Today: a warm `npm start` (packages and
 // MariaDB installed, apps built) until /api/health answers 200, median of 5 runs.
-import { spawn } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -9,6 +9,8 @@ import { step } from './lib/output';
 import { root, varDir } from './lib/project';
 
 const RUNS = Number(process.env.BENCH_RUNS ?? 5);
+const only = process.argv.slice(3);
+const wants = (name: string) => only.length === 0 || only.includes(name);
 const port = process.env.PORT ?? '4000';
 
 async function warmStart(): Promise<number> {
@@ -22,6 +24,13 @@ async function warmStart(): Promise<number> {
   return ms;
 }
 
+if (wants('slots')) {
+  step('Slot engine: 20 technicians × 28 days × 1,000 bookings (vitest bench)');
+  const r = spawnSync(path.join(root, 'node_modules/.bin/vitest'), ['bench', '--run', 'tests/bench/slots.bench.ts', '--project', 'unit'], { cwd: root, stdio: 'inherit' });
+  if (r.status !== 0) process.exitCode = 1;
+}
+
+if (!wants('start')) process.exit(process.exitCode ?? 0);
 step(`Warm start to healthy /api/health, ${RUNS} runs (the first run also builds the apps if they are stale, so it is not counted)`);
 await warmStart();
 const times: number[] = [];
