@@ -11,7 +11,7 @@ import { isoDay, pdfBytes } from '../setup/files';
 import { AREA, BUSINESS, CAPABILITIES, upload } from '../setup/onboarding';
 
 let t: TestApp;
-type Org = Awaited<ReturnType<typeof partnerWithTeam>> & { invitationId: string; name: string; invitee: string; documentId: string };
+type Org = Awaited<ReturnType<typeof partnerWithTeam>> & { invitationId: string; name: string; invitee: string; documentId: string; offerId: string; partId: string };
 let A: Org;
 let B: Org;
 
@@ -23,14 +23,43 @@ async function organisation(): Promise<Org> {
   const [row] = await t.dataSource.query('SELECT name FROM organisation WHERE id = ?', [o.orgId]);
   // the document's bytes carry the organisation id, so its own download can be recognised
   const doc = await upload(t.app, o.admin, o.orgId, { kind: 'registration' }, { bytes: pdfBytes('Registration', o.orgId), name: 'registration.pdf' }).expect(201);
-  return { ...o, invitationId: inv.body.data.id, name: row.name, invitee, documentId: doc.body.data.id };
+  // an offer (of a service type the sample equipment covers) with a part in its kit
+  await request(t.app).put(`/api/orgs/${o.orgId}/application/capabilities`).auth(o.admin.accessToken, { type: 'bearer' }).send(CAPABILITIES).expect(200);
+  const part = await request(t.app).post(`/api/orgs/${o.orgId}/parts`).auth(o.admin.accessToken, { type: 'bearer' }).send(PART).expect(201);
+  const offer = await request(t.app)
+    .post(`/api/orgs/${o.orgId}/offers`)
+    .auth(o.admin.accessToken, { type: 'bearer' })
+    .send({ ...OFFER, technicianUserIds: [o.technician!.userId], partsKit: [{ partId: part.body.data.id, quantity: 1 }] })
+    .expect(201);
+  return { ...o, invitationId: inv.body.data.id, name: row.name, invitee, documentId: doc.body.data.id, offerId: offer.body.data.id, partId: part.body.data.id };
 }
+
+const PART = { name: 'Probe handset', partType: 'handset', unitPriceMinor: 1500, currency: 'EUR', stock: 4 };
+const OFFER = {
+  serviceTypeCode: 'handset-pairing',
+  priceMinor: 4500,
+  currency: 'EUR',
+  durationMinutes: 30,
+  technicianUserIds: [],
+  partsKit: [],
+  deposit: { kind: 'none' },
+  cancellation: { freeUntilHours: 24, feeMinor: 0 },
+};
+const HOURS = {
+  timeZone: 'Europe/Vienna',
+  weekly: { monday: [{ start: '08:00', end: '17:00' }] },
+  minimumNoticeMinutes: 60,
+  bookingHorizonDays: 30,
+  bufferMinutes: 15,
+};
 
 /** How to fill each path parameter with a record of the *other* organisation. */
 const recordOf: Record<string, (o: Org) => string> = {
   userId: (o) => o.technician!.userId,
   invitationId: (o) => o.invitationId,
   documentId: (o) => o.documentId,
+  offerId: (o) => o.offerId,
+  partId: (o) => o.partId,
 };
 
 /** A valid body for each operation that takes one, so refusals are about tenancy, not validation. */
@@ -40,6 +69,12 @@ const sampleBodies: Record<string, () => object> = {
   'put /api/orgs/{orgId}/application/business': () => BUSINESS,
   'put /api/orgs/{orgId}/application/area': () => AREA,
   'put /api/orgs/{orgId}/application/capabilities': () => CAPABILITIES,
+  'post /api/orgs/{orgId}/offers': () => OFFER,
+  'patch /api/orgs/{orgId}/offers/{offerId}': () => ({ priceMinor: 5000 }),
+  'post /api/orgs/{orgId}/parts': () => PART,
+  'patch /api/orgs/{orgId}/parts/{partId}': () => ({ stock: 3 }),
+  'put /api/orgs/{orgId}/travel-policy': () => ({ freeWithinKm: 20, ratePerKmMinor: 80, currency: 'EUR', maxDistanceKm: 150 }),
+  'put /api/orgs/{orgId}/technicians/{userId}/hours': () => HOURS,
 };
 
 /** Text fields and a real file for each multipart/form-data operation. */
@@ -59,7 +94,7 @@ let operations: Operation[] = [];
 
 async function fingerprint(): Promise<string> {
   const rows: { Table: string; Checksum: number }[] = await t.dataSource.query(
-    'CHECKSUM TABLE organisation, membership, invitation, user_account, audit_log, mail_outbox, refresh_token, partner_profile, organisation_capability, partner_document',
+    'CHECKSUM TABLE organisation, membership, invitation, user_account, audit_log, mail_outbox, refresh_token, partner_profile, organisation_capability, partner_document, offer, offer_technician, part, offer_part, travel_policy, working_hours',
   );
   // stored files count too: a refused upload must not leave one behind
   const files = readdirSync(t.uploadsDir, { recursive: true }).map(String).sort().join(',');

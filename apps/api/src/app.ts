@@ -25,6 +25,7 @@ import { registerTeamRoutes } from './routes/team.routes';
 import { registerVehicleRoutes } from './routes/vehicle.routes';
 import { registerHealthRoutes } from './routes/health.routes';
 import { registerOnboardingRoutes } from './routes/onboarding.routes';
+import { registerOfferRoutes } from './routes/offers.routes';
 import { registerPartnerRoutes } from './routes/partners.routes';
 import { registerReviewRoutes } from './routes/review.routes';
 import { docsRouter } from './routes/docs.routes';
@@ -138,6 +139,7 @@ export function createApp(deps: AppDeps): EmberlineApp {
   registerOnboardingRoutes(api, context);
   registerReviewRoutes(api, context);
   registerPartnerRoutes(api, context);
+  registerOfferRoutes(api, context);
   api.router.use(docsRouter(registry, deps.version));
   api.router.use(apiNotFound);
 

@@ -7,3 +7,4 @@ export * from './account-api';
 export * from './vehicles';
 export * from './session-clients';
 export * from './onboarding';
+export * from './offers';

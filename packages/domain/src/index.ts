@@ -10,3 +10,4 @@ export * from './schemas/onboarding';
 export * from './geo';
 export * from './slots';
 export * from './schemas/hours';
+export * from './schemas/offers';

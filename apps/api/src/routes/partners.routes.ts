@@ -1,6 +1,6 @@
 // Public Directory routes for partners.
 import { z } from 'zod';
-import { PublicPartnerSchema } from '@emberline/domain';
+import { IdSchema, MAX_SLOT_SEARCH_DAYS, PartnerSlotsSchema, PublicPartnerSchema, SLOT_LIST_LIMIT, SlotsQuerySchema } from '@emberline/domain';
 import type { AppContext } from '../app';
 import type { ApiRouter } from '../lib/api-router';
 import { partnersController } from '../controllers/partners.controller';
@@ -16,5 +16,19 @@ export function registerPartnerRoutes(api: ApiRouter, app: AppContext): void {
       response: z.object({ data: z.array(PublicPartnerSchema) }),
     },
     c.list,
+  );
+  api.route(
+    {
+      method: 'get',
+      path: '/partners/:partnerId/slots',
+      summary: 'Bookable start times of an approved partner for a service type at a place',
+      description: `The place (\`lat\`, \`lng\`) must lie in the partner's service area (else 400 on both). Searches \`days\` local days (1–${MAX_SLOT_SEARCH_DAYS}) from \`from\` (default now) for the technicians assigned to the partner's offer; each list holds at most ${SLOT_LIST_LIMIT} slots. A partner that is not approved is 404.`,
+      tags: ['Directory'],
+      params: z.object({ partnerId: IdSchema }),
+      query: SlotsQuerySchema,
+      response: z.object({ data: PartnerSlotsSchema }),
+      problems: [404],
+    },
+    c.slots,
   );
 }

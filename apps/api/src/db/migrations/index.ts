@@ -3,5 +3,6 @@ import { Catalogue1764620000000 } from './1764620000000-catalogue';
 import { Accounts1764630000000 } from './1764630000000-accounts';
 import { Vehicles1764640000000 } from './1764640000000-vehicles';
 import { Onboarding1764650000000 } from './1764650000000-onboarding';
+import { Offers1764660000000 } from './1764660000000-offers';
 
-export const migrations = [Catalogue1764620000000, Accounts1764630000000, Vehicles1764640000000, Onboarding1764650000000];
+export const migrations = [Catalogue1764620000000, Accounts1764630000000, Vehicles1764640000000, Onboarding1764650000000, Offers1764660000000];

@@ -18,6 +18,7 @@ import { newId } from '../../lib/secure-token';
 import type { Storage } from '../../storage';
 import { DEMO_NETWORK_ADMINS, DEMO_ORGANISATIONS, DEMO_OWNERS, DEMO_PASSWORD, DEMO_VEHICLES, type DemoOrganisation, type DemoPerson } from './demo-data';
 import { minimalPdf } from './minimal-pdf';
+import { seedDemoOffers } from './demo-offers';
 
 export interface DemoSeedReport {
   usersAdded: number;
@@ -139,5 +140,6 @@ export async function seedDemo(manager: EntityManager, bcryptCost: number, o: { 
     if (added.profile) report.profilesAdded++;
     report.documentsAdded += added.documents;
   }
+  await seedDemoOffers(manager);
   return report;
 }

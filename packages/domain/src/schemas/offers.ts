@@ -1,0 +1,184 @@
+// What a partner organisation sells: offers (a service type at a price and duration, with the
+// technicians who do it and the parts kit it uses), its parts, travel policy and working hours,
+// and the bookable slots the public sees. Money is integer minor units plus an ISO 4217 code.
+import { z } from 'zod';
+import { IdSchema } from './accounts';
+import { CatalogueCodeSchema } from './catalogue';
+import { InstantSchema, JobDurationMinutesSchema, WorkingHoursSchema } from './hours';
+
+export const CURRENCIES = ['EUR', 'SEK', 'NOK', 'DKK', 'CHF'] as const;
+export const CurrencySchema = z.enum(CURRENCIES, { error: `Choose one of ${CURRENCIES.join(', ')}` });
+export type Currency = z.infer<typeof CurrencySchema>;
+
+/** Largest amount an offer, part or fee may carry: 100 000.00 in minor units. */
+export const MAX_MINOR = 10_000_000;
+
+export const MinorAmountSchema = z
+  .number({ error: 'Enter an amount in minor units (cents, öre)' })
+  .int('Enter a whole number of minor units (cents, öre)')
+  .min(0, 'The amount cannot be negative')
+  .max(MAX_MINOR, `The amount must be at most ${MAX_MINOR} minor units`);
+
+export const DepositSchema = z.discriminatedUnion(
+  'kind',
+  [
+    z.object({ kind: z.literal('none') }),
+    z.object({ kind: z.literal('fixed'), amountMinor: MinorAmountSchema }),
+    z.object({
+      kind: z.literal('percent'),
+      percent: z.number({ error: 'Enter a percentage' }).int('Enter a whole percentage').min(1, 'The deposit is 1 to 100 %').max(100, 'The deposit is 1 to 100 %'),
+    }),
+  ],
+  { error: 'Choose no deposit, a fixed amount or a percentage' },
+);
+export type Deposit = z.infer<typeof DepositSchema>;
+
+export const CancellationSchema = z.object({
+  freeUntilHours: z.number({ error: 'Enter hours before the start' }).int('Enter whole hours').min(0, 'Use 0 to 336 hours').max(336, 'Use 0 to 336 hours (two weeks)'),
+  feeMinor: MinorAmountSchema,
+});
+export type Cancellation = z.infer<typeof CancellationSchema>;
+
+export const PartsKitLineSchema = z.object({
+  partId: IdSchema,
+  quantity: z.number({ error: 'Enter a quantity' }).int('Enter a whole quantity').min(1, 'Use 1 to 99').max(99, 'Use 1 to 99'),
+});
+
+const offerFields = {
+  serviceTypeCode: CatalogueCodeSchema,
+  priceMinor: MinorAmountSchema,
+  currency: CurrencySchema,
+  durationMinutes: JobDurationMinutesSchema,
+  technicianUserIds: z.array(IdSchema).max(50, 'Assign at most 50 technicians'),
+  partsKit: z.array(PartsKitLineSchema).max(50, 'Use at most 50 lines in a parts kit'),
+  deposit: DepositSchema,
+  cancellation: CancellationSchema,
+};
+
+function uniqueLists(v: { technicianUserIds?: string[]; partsKit?: { partId: string }[] }, ctx: z.RefinementCtx): void {
+  const seen = new Set<string>();
+  v.technicianUserIds?.forEach((id, i) => {
+    if (seen.has(id)) ctx.addIssue({ code: 'custom', path: ['technicianUserIds', i], message: 'This technician is listed twice' });
+    seen.add(id);
+  });
+  const parts = new Set<string>();
+  v.partsKit?.forEach((line, i) => {
+    if (parts.has(line.partId)) ctx.addIssue({ code: 'custom', path: ['partsKit', i, 'partId'], message: 'This part is listed twice: raise its quantity instead' });
+    parts.add(line.partId);
+  });
+}
+
+export const OfferInputSchema = z
+  .object({ ...offerFields, technicianUserIds: offerFields.technicianUserIds.default([]), partsKit: offerFields.partsKit.default([]) })
+  .superRefine(uniqueLists);
+export type OfferInput = z.output<typeof OfferInputSchema>;
+
+/** A change to an offer; the service type of an offer is fixed. */
+export const OfferPatchSchema = z
+  .object({
+    priceMinor: offerFields.priceMinor.optional(),
+    currency: offerFields.currency.optional(),
+    durationMinutes: offerFields.durationMinutes.optional(),
+    technicianUserIds: offerFields.technicianUserIds.optional(),
+    partsKit: offerFields.partsKit.optional(),
+    deposit: offerFields.deposit.optional(),
+    cancellation: offerFields.cancellation.optional(),
+  })
+  .superRefine(uniqueLists);
+export type OfferPatch = z.output<typeof OfferPatchSchema>;
+
+export const OfferSchema = z.object({
+  id: IdSchema,
+  organisationId: IdSchema,
+  serviceTypeCode: CatalogueCodeSchema,
+  serviceTypeName: z.string(),
+  priceMinor: z.number().int(),
+  currency: CurrencySchema,
+  durationMinutes: z.number().int(),
+  technicianUserIds: z.array(IdSchema),
+  partsKit: z.array(PartsKitLineSchema.extend({ name: z.string(), unitPriceMinor: z.number().int(), currency: CurrencySchema })),
+  /** Sum of the kit's lines, in the offer's currency. */
+  partsTotalMinor: z.number().int(),
+  deposit: DepositSchema,
+  cancellation: CancellationSchema,
+  createdAt: z.string(),
+  updatedAt: z.string(),
+});
+export type Offer = z.infer<typeof OfferSchema>;
+
+export const PartInputSchema = z.object({
+  name: z.string({ error: 'Enter a name' }).trim().min(2, 'Enter a name of at least 2 characters').max(120, 'Use at most 120 characters'),
+  partType: z.string({ error: 'Enter a part type' }).trim().min(2, 'Enter a part type of at least 2 characters').max(60, 'Use at most 60 characters'),
+  unitPriceMinor: MinorAmountSchema,
+  currency: CurrencySchema,
+  stock: z.number({ error: 'Enter the stock' }).int('Enter a whole number').min(0, 'Stock cannot be negative').max(1_000_000, 'Use at most 1 000 000'),
+});
+export type PartInput = z.output<typeof PartInputSchema>;
+export const PartPatchSchema = PartInputSchema.partial();
+export type PartPatch = z.output<typeof PartPatchSchema>;
+
+export const PartSchema = PartInputSchema.extend({ id: IdSchema, organisationId: IdSchema, createdAt: z.string(), updatedAt: z.string() });
+export type Part = z.infer<typeof PartSchema>;
+
+export const TravelPolicyInputSchema = z
+  .object({
+    freeWithinKm: z.number({ error: 'Enter the free distance in km' }).int('Enter whole kilometres').min(0, 'Use 0 to 500 km').max(500, 'Use 0 to 500 km'),
+    ratePerKmMinor: MinorAmountSchema,
+    currency: CurrencySchema,
+    maxDistanceKm: z.number({ error: 'Enter the longest distance in km' }).int('Enter whole kilometres').min(1, 'Use 1 to 500 km').max(500, 'Use 1 to 500 km'),
+  })
+  .superRefine((v, ctx) => {
+    if (v.maxDistanceKm < v.freeWithinKm) ctx.addIssue({ code: 'custom', path: ['maxDistanceKm'], message: `The longest distance must not be shorter than the free distance (${v.freeWithinKm} km)` });
+  });
+export type TravelPolicyInput = z.output<typeof TravelPolicyInputSchema>;
+
+export const TravelPolicySchema = z.object({
+  organisationId: IdSchema,
+  /** False while the organisation has not saved one; the fields are then null. */
+  configured: z.boolean(),
+  freeWithinKm: z.number().int().nullable(),
+  ratePerKmMinor: z.number().int().nullable(),
+  currency: CurrencySchema.nullable(),
+  maxDistanceKm: z.number().int().nullable(),
+});
+export type TravelPolicy = z.infer<typeof TravelPolicySchema>;
+
+export const TechnicianHoursSchema = z.object({
+  organisationId: IdSchema,
+  userId: IdSchema,
+  /** Null until the hours are set. */
+  hours: WorkingHoursSchema.nullable(),
+});
+export type TechnicianHours = z.infer<typeof TechnicianHoursSchema>;
+
+/** Longest search the public slots endpoint answers, in days. */
+export const MAX_SLOT_SEARCH_DAYS = 28;
+/** Most slots one list in the answer carries. */
+export const SLOT_LIST_LIMIT = 50;
+
+export const SlotsQuerySchema = z.object({
+  serviceType: CatalogueCodeSchema,
+  lat: z.coerce.number({ error: 'Enter a latitude' }).min(-90, 'Latitude is −90 to 90').max(90, 'Latitude is −90 to 90'),
+  lng: z.coerce.number({ error: 'Enter a longitude' }).min(-180, 'Longitude is −180 to 180').max(180, 'Longitude is −180 to 180'),
+  from: InstantSchema.optional().describe('Earliest start; defaults to now'),
+  days: z.coerce
+    .number({ error: 'Enter a number of days' })
+    .int('Enter whole days')
+    .min(1, `Search 1 to ${MAX_SLOT_SEARCH_DAYS} days`)
+    .max(MAX_SLOT_SEARCH_DAYS, `Search 1 to ${MAX_SLOT_SEARCH_DAYS} days`)
+    .default(7),
+});
+export type SlotsQuery = z.output<typeof SlotsQuerySchema>;
+
+const SlotSchema = z.object({ start: z.string(), end: z.string(), localStart: z.string() });
+export const PartnerSlotsSchema = z.object({
+  partnerId: IdSchema,
+  serviceTypeCode: CatalogueCodeSchema,
+  durationMinutes: z.number().int(),
+  timeZone: z.string(),
+  organisation: z.array(SlotSchema.extend({ technicianIds: z.array(IdSchema) })),
+  technicians: z.array(z.object({ technicianId: IdSchema, timeZone: z.string(), slots: z.array(SlotSchema) })),
+  /** True when a list was cut at SLOT_LIST_LIMIT. */
+  truncated: z.boolean(),
+});
+export type PartnerSlots = z.infer<typeof PartnerSlotsSchema>;

@@ -1,0 +1,188 @@
+// Offers, parts, travel policy and working hours under /orgs/:orgId: the happy paths, the
+// capability rule, another organisation's ids, bad input (field errors, nothing saved) and roles.
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createTestApp, type TestApp } from '../setup/app';
+import { partnerWithTeam } from '../setup/accounts';
+import { bearer, CAPABILITIES } from '../setup/onboarding';
+
+let t: TestApp;
+type Team = Awaited<ReturnType<typeof partnerWithTeam>>;
+let A: Team;
+let B: Team;
+let bPartId: string;
+
+const paths = (res: request.Response) => (res.body.errors as { path: string }[]).map((e) => e.path).sort();
+const PART = { name: 'Test handset', partType: 'handset', unitPriceMinor: 1500, currency: 'EUR', stock: 4 };
+const OFFER = {
+  serviceTypeCode: 'handset-pairing',
+  priceMinor: 4500,
+  currency: 'EUR',
+  durationMinutes: 30,
+  deposit: { kind: 'percent', percent: 20 },
+  cancellation: { freeUntilHours: 24, feeMinor: 1000 },
+};
+const HOURS = {
+  timeZone: 'Europe/Vienna',
+  weekly: { monday: [{ start: '08:00', end: '12:00' }, { start: '12:00', end: '17:00' }] },
+  minimumNoticeMinutes: 60,
+  bookingHorizonDays: 30,
+  bufferMinutes: 15,
+};
+
+async function count(table: 'offer' | 'part' | 'working_hours' | 'travel_policy', orgId: string): Promise<number> {
+  const [row] = await t.dataSource.query(`SELECT COUNT(*) AS n FROM ${table} WHERE organisation_id = ?`, [orgId]);
+  return Number(row.n);
+}
+
+const post = (team: Team, path: string, body: object, who = team.admin) => request(t.app).post(`/api/orgs/${team.orgId}${path}`).set(bearer(who)).send(body);
+
+beforeAll(async () => {
+  t = await createTestApp();
+  A = await partnerWithTeam(t.app, t.dataSource, { technician: true });
+  B = await partnerWithTeam(t.app, t.dataSource, { technician: true });
+  for (const team of [A, B]) await request(t.app).put(`/api/orgs/${team.orgId}/application/capabilities`).set(bearer(team.admin)).send(CAPABILITIES).expect(200);
+  bPartId = (await post(B, '/parts', { ...PART, name: 'Secret part of B' }).expect(201)).body.data.id;
+}, 60_000);
+afterAll(() => t.close());
+
+describe('offers', () => {
+  it('creates, lists, reads, changes and withdraws an offer with its technicians and parts kit', async () => {
+    const part = (await post(A, '/parts', PART).expect(201)).body.data;
+    expect(part).toMatchObject({ ...PART, organisationId: A.orgId });
+    const created = await post(A, '/offers', { ...OFFER, technicianUserIds: [A.technician!.userId], partsKit: [{ partId: part.id, quantity: 2 }] }).expect(201);
+    const offer = created.body.data;
+    expect(offer).toMatchObject({
+      organisationId: A.orgId,
+      serviceTypeCode: 'handset-pairing',
+      priceMinor: 4500,
+      currency: 'EUR',
+      durationMinutes: 30,
+      technicianUserIds: [A.technician!.userId],
+      partsKit: [{ partId: part.id, quantity: 2, name: PART.name, unitPriceMinor: 1500 }],
+      partsTotalMinor: 3000,
+      deposit: { kind: 'percent', percent: 20 },
+    });
+    const [row] = await t.dataSource.query('SELECT price_minor FROM offer WHERE id = ?', [offer.id]);
+    expect(String(row.price_minor)).toBe('4500');
+
+    // the team reads; only partner admins write
+    const list = await request(t.app).get(`/api/orgs/${A.orgId}/offers`).set(bearer(A.technician!)).expect(200);
+    expect(list.body.data.map((o: { id: string }) => o.id)).toEqual([offer.id]);
+    await post(A, '/offers', { ...OFFER, serviceTypeCode: 'heater-fault-diagnosis' }, A.technician!).expect(403);
+
+    // one offer per service type
+    expect((await post(A, '/offers', OFFER).expect(409)).body.code).toBe('OFFER_EXISTS');
+
+    const patched = await request(t.app).patch(`/api/orgs/${A.orgId}/offers/${offer.id}`).set(bearer(A.admin)).send({ priceMinor: 5000, technicianUserIds: [], deposit: { kind: 'none' } }).expect(200);
+    expect(patched.body.data).toMatchObject({ priceMinor: 5000, technicianUserIds: [], deposit: { kind: 'none' }, partsTotalMinor: 3000 });
+
+    // a part in a kit stays until it leaves the kit
+    expect((await request(t.app).delete(`/api/orgs/${A.orgId}/parts/${part.id}`).set(bearer(A.admin)).expect(409)).body.code).toBe('PART_IN_USE');
+    await request(t.app).delete(`/api/orgs/${A.orgId}/offers/${offer.id}`).set(bearer(A.admin)).expect(200);
+    await request(t.app).get(`/api/orgs/${A.orgId}/offers/${offer.id}`).set(bearer(A.admin)).expect(404);
+    await request(t.app).delete(`/api/orgs/${A.orgId}/parts/${part.id}`).set(bearer(A.admin)).expect(200);
+    expect(await count('offer', A.orgId)).toBe(0);
+    expect(await count('part', A.orgId)).toBe(0);
+  });
+
+  it('offers a service type only when the organisation holds every capability it requires', async () => {
+    // the sample equipment has no flashing, coding or interface tools
+    const res = await post(A, '/offers', { ...OFFER, serviceTypeCode: 'parking-conversion-auto' }).expect(400);
+    expect(paths(res)).toEqual(['serviceTypeCode']);
+    const message = res.body.errors[0].message as string;
+    for (const code of ['uds-flash-programming', 'control-unit-coding', 'sealed-connector-crimping']) expect(message).toContain(code);
+    for (const held of ['vci-pass-thru', 'battery-support-unit', 'digital-multimeter']) expect(message).not.toContain(held);
+    expect(paths(await post(A, '/offers', { ...OFFER, serviceTypeCode: 'no-such-service' }).expect(400))).toEqual(['serviceTypeCode']);
+    expect(await count('offer', A.orgId)).toBe(0);
+  });
+
+  it('answers another organisation\'s part or technician with a field error that says nothing of it', async () => {
+    const res = await post(A, '/offers', { ...OFFER, technicianUserIds: [B.technician!.userId], partsKit: [{ partId: bPartId, quantity: 1 }] }).expect(400);
+    expect(paths(res)).toEqual(['partsKit.0.partId', 'technicianUserIds.0']);
+    const text = JSON.stringify(res.body);
+    for (const secret of ['Secret part of B', B.technician!.email, B.orgId]) expect(text).not.toContain(secret);
+    expect(await count('offer', A.orgId)).toBe(0);
+    // and B's part is not reachable under A's id
+    await request(t.app).patch(`/api/orgs/${A.orgId}/parts/${bPartId}`).set(bearer(A.admin)).send({ stock: 1 }).expect(404);
+    const [row] = await t.dataSource.query('SELECT stock FROM part WHERE id = ?', [bPartId]);
+    expect(Number(row.stock)).toBe(PART.stock);
+  });
+
+  it('refuses bad input with field errors on the right paths and saves nothing', async () => {
+    const res = await post(A, '/offers', {
+      ...OFFER,
+      priceMinor: -1,
+      durationMinutes: 17,
+      currency: 'USD',
+      deposit: { kind: 'percent', percent: 0 },
+      cancellation: { freeUntilHours: 400, feeMinor: 1.5 },
+      partsKit: [{ partId: bPartId, quantity: 100 }],
+    }).expect(400);
+    expect(paths(res)).toEqual(['cancellation.feeMinor', 'cancellation.freeUntilHours', 'currency', 'deposit.percent', 'durationMinutes', 'partsKit.0.quantity', 'priceMinor']);
+    expect(paths(await post(A, '/offers', { ...OFFER, priceMinor: 10_000_001 }).expect(400))).toEqual(['priceMinor']);
+    // a fixed deposit above the price
+    expect(paths(await post(A, '/offers', { ...OFFER, deposit: { kind: 'fixed', amountMinor: 5000 } }).expect(400))).toEqual(['deposit.amountMinor']);
+    expect(paths(await post(A, '/parts', { ...PART, stock: -1, unitPriceMinor: 12.5 }).expect(400))).toEqual(['stock', 'unitPriceMinor']);
+    expect(await count('offer', A.orgId)).toBe(0);
+    expect(await count('part', A.orgId)).toBe(0);
+  });
+
+  it('leaves an offer as it was when a change is refused', async () => {
+    const part = (await post(A, '/parts', { ...PART, name: 'Kit part' }).expect(201)).body.data;
+    const offer = (await post(A, '/offers', { ...OFFER, technicianUserIds: [A.technician!.userId], partsKit: [{ partId: part.id, quantity: 1 }] }).expect(201)).body.data;
+    const res = await request(t.app)
+      .patch(`/api/orgs/${A.orgId}/offers/${offer.id}`)
+      .set(bearer(A.admin))
+      .send({ priceMinor: 9999, technicianUserIds: [], partsKit: [{ partId: bPartId, quantity: 1 }] })
+      .expect(400);
+    expect(paths(res)).toEqual(['partsKit.0.partId']);
+    const now = (await request(t.app).get(`/api/orgs/${A.orgId}/offers/${offer.id}`).set(bearer(A.admin)).expect(200)).body.data;
+    expect(now).toMatchObject({ priceMinor: OFFER.priceMinor, technicianUserIds: [A.technician!.userId], partsKit: [{ partId: part.id, quantity: 1 }] });
+    // a part in a EUR kit keeps its currency
+    expect(paths(await request(t.app).patch(`/api/orgs/${A.orgId}/parts/${part.id}`).set(bearer(A.admin)).send({ currency: 'SEK' }).expect(400))).toEqual(['currency']);
+  });
+});
+
+describe('travel policy', () => {
+  it('is unset at first, then saved; bad values are field errors', async () => {
+    const first = await request(t.app).get(`/api/orgs/${A.orgId}/travel-policy`).set(bearer(A.technician!)).expect(200);
+    expect(first.body.data).toMatchObject({ organisationId: A.orgId, configured: false, freeWithinKm: null });
+    const bad = await request(t.app).put(`/api/orgs/${A.orgId}/travel-policy`).set(bearer(A.admin)).send({ freeWithinKm: 30, ratePerKmMinor: -5, currency: 'EUR', maxDistanceKm: 150 }).expect(400);
+    expect(paths(bad)).toEqual(['ratePerKmMinor']);
+    const short = await request(t.app).put(`/api/orgs/${A.orgId}/travel-policy`).set(bearer(A.admin)).send({ freeWithinKm: 30, ratePerKmMinor: 80, currency: 'EUR', maxDistanceKm: 20 }).expect(400);
+    expect(paths(short)).toEqual(['maxDistanceKm']);
+    expect(await count('travel_policy', A.orgId)).toBe(0);
+    await request(t.app).put(`/api/orgs/${A.orgId}/travel-policy`).set(bearer(A.technician!)).send({ freeWithinKm: 20, ratePerKmMinor: 80, currency: 'EUR', maxDistanceKm: 150 }).expect(403);
+    const saved = await request(t.app).put(`/api/orgs/${A.orgId}/travel-policy`).set(bearer(A.admin)).send({ freeWithinKm: 20, ratePerKmMinor: 80, currency: 'EUR', maxDistanceKm: 150 }).expect(200);
+    expect(saved.body.data).toEqual({ organisationId: A.orgId, configured: true, freeWithinKm: 20, ratePerKmMinor: 80, currency: 'EUR', maxDistanceKm: 150 });
+  });
+});
+
+describe('working hours', () => {
+  const hoursUrl = (team: Team, userId: string) => `/api/orgs/${team.orgId}/technicians/${userId}/hours`;
+
+  it('refuses an unknown zone and overlapping intervals with field errors, saving nothing', async () => {
+    const url = hoursUrl(A, A.technician!.userId);
+    const zone = await request(t.app).put(url).set(bearer(A.admin)).send({ ...HOURS, timeZone: 'Europe/Atlantis' }).expect(400);
+    expect(paths(zone)).toEqual(['timeZone']);
+    const overlap = await request(t.app)
+      .put(url)
+      .set(bearer(A.admin))
+      .send({ ...HOURS, weekly: { tuesday: [{ start: '08:00', end: '12:00' }, { start: '11:30', end: '17:00' }] } })
+      .expect(400);
+    expect(paths(overlap)).toEqual(['weekly.tuesday.1.start']);
+    expect(await count('working_hours', A.orgId)).toBe(0);
+    expect((await request(t.app).get(url).set(bearer(A.admin)).expect(200)).body.data).toEqual({ organisationId: A.orgId, userId: A.technician!.userId, hours: null });
+  });
+
+  it('saves a member\'s hours and refuses someone who is not a member', async () => {
+    const url = hoursUrl(A, A.technician!.userId);
+    const saved = await request(t.app).put(url).set(bearer(A.admin)).send(HOURS).expect(200);
+    expect(saved.body.data.hours).toMatchObject({ timeZone: 'Europe/Vienna', weekly: { monday: HOURS.weekly.monday, sunday: [] }, exceptions: [] });
+    expect((await request(t.app).get(url).set(bearer(A.technician!)).expect(200)).body.data.hours.weekly.monday).toEqual(HOURS.weekly.monday);
+    await request(t.app).put(hoursUrl(A, B.technician!.userId)).set(bearer(A.admin)).send(HOURS).expect(404);
+    await request(t.app).get(hoursUrl(A, B.technician!.userId)).set(bearer(A.admin)).expect(404);
+    expect(await count('working_hours', B.orgId)).toBe(0);
+  });
+});
