@@ -68,7 +68,10 @@ export async function openPage(h: Harness, viewport = DESKTOP): Promise<{ contex
     if (m.type() === 'error') problems.push(`console: ${m.text()}`);
   });
   page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
-  page.on('requestfailed', (r) => problems.push(`request failed: ${r.url()} ${r.failure()?.errorText}`));
+  // a request the browser itself cancels because the page moved on (ERR_ABORTED) is not a fault
+  page.on('requestfailed', (r) => {
+    if (r.failure()?.errorText !== 'net::ERR_ABORTED') problems.push(`request failed: ${r.url()} ${r.failure()?.errorText}`);
+  });
   return { context, page, problems };
 }
 
