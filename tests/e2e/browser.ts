@@ -67,7 +67,7 @@ export async function openPage(h: Harness, viewport = DESKTOP): Promise<{ contex
   page.on('console', (m) => {
     if (m.type() === 'error') problems.push(`console: ${m.text()}`);
   });
-  page.on('pageerror', (e) => problems.push(`page error: ${e.message}`));
+  page.on('pageerror', (e) => problems.push(`page error: ${e?.message ?? String(e)} ${e?.stack?.split('\n').slice(0, 3).join(' | ') ?? ''}`.trim()));
   // a request the browser itself cancels because the page moved on (ERR_ABORTED) is not a fault
   page.on('requestfailed', (r) => {
     if (r.failure()?.errorText !== 'net::ERR_ABORTED') problems.push(`request failed: ${r.url()} ${r.failure()?.errorText}`);
