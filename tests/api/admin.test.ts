@@ -37,6 +37,8 @@ describe('admin routes', () => {
     expect(audit.body.data.map((a: { action: string }) => a.action)).toEqual(['invitation.accept', 'invitation.create', 'organisation.create']);
     const bad = await request(t.app).get('/api/admin/mail-log').query({ status: 'lost', limit: 0 }).auth(admin.accessToken, { type: 'bearer' }).expect(400);
     expect(bad.body.errors.map((e: { path: string }) => e.path).sort()).toEqual(['query.limit', 'query.status']);
+    const badAudit = await request(t.app).get('/api/admin/audit-log').query({ organisationId: 'not-an-id', limit: 9999 }).auth(admin.accessToken, { type: 'bearer' }).expect(400);
+    expect(badAudit.body.errors.map((e: { path: string }) => e.path).sort()).toEqual(['query.limit', 'query.organisationId']);
   });
 });
 

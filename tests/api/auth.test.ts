@@ -126,6 +126,15 @@ describe('access tokens', () => {
     expect(res.body.detail).toMatch(/expired/);
   });
 
+  it('lets the owner change name and language, and refuses bad values', async () => {
+    const token = jwt.sign({ typ: 'access' }, TEST_JWT_SECRET, { subject: userId, issuer: 'emberline', audience: 'emberline-api', expiresIn: 600 });
+    const changed = await request(t.app).patch('/api/me').set(bearer(token)).send({ locale: 'de' }).expect(200);
+    expect(changed.body.data.locale).toBe('de');
+    const bad = await request(t.app).patch('/api/me').set(bearer(token)).send({ name: '', locale: 'fr' }).expect(400);
+    expect(bad.body.errors.map((e: { path: string }) => e.path).sort()).toEqual(['locale', 'name']);
+    expect((await request(t.app).get('/api/me').set(bearer(token))).body.data.locale).toBe('de');
+  });
+
   it('accepts a valid token and refuses none at all', async () => {
     const token = jwt.sign({ typ: 'access' }, TEST_JWT_SECRET, { subject: userId, issuer: 'emberline', audience: 'emberline-api', expiresIn: 600 });
     await request(t.app).get('/api/me').set(bearer(token)).expect(200);

@@ -11,3 +11,4 @@ export * from './geo';
 export * from './slots';
 export * from './schemas/hours';
 export * from './schemas/offers';
+export * from './vetting/insurance';

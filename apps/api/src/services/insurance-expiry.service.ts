@@ -1,6 +1,7 @@
 // The daily insurance check: approved partners hear 30, 7 and 1 days before their liability
 // insurance certificate expires (and on the day), and are suspended once it has expired.
 import type { DataSource, EntityManager } from 'typeorm';
+import { daysBetween, reminderThreshold } from '@emberline/domain';
 import { InsuranceReminderEntity, OrganisationEntity, PartnerProfileEntity } from '../entities';
 import type { Logger } from '../lib/logger';
 import { ANONYMOUS } from '../lib/context';
@@ -11,8 +12,6 @@ import { consoleLinks, networkAdmins, partnerAdminsOf } from './recipients';
 
 /** Named MariaDB lock: with several API instances only one runs the check at a time. */
 export const INSURANCE_LOCK = 'emberline.insurance-expiry';
-/** Reminder thresholds in days before expiry, widest first. */
-export const REMINDER_DAYS = [30, 7, 1, 0] as const;
 
 export interface InsuranceExpiryOptions {
   dataSource: DataSource;
@@ -29,15 +28,6 @@ export interface InsuranceExpiryResult {
   skipped: boolean;
 }
 
-const DAY_MS = 86_400_000;
-const daysBetween = (from: string, to: string) => Math.round((Date.parse(`${to}T00:00:00Z`) - Date.parse(`${from}T00:00:00Z`)) / DAY_MS);
-
-/** The tightest threshold a certificate expiring in `daysLeft` days has reached, if any. */
-export function reminderThreshold(daysLeft: number): number | null {
-  let reached: number | null = null;
-  for (const days of REMINDER_DAYS) if (daysLeft <= days) reached = days;
-  return daysLeft < 0 ? null : reached;
-}
 
 async function organisationName(manager: EntityManager, org: OrganisationEntity): Promise<string> {
   const profile = await manager.getRepository(PartnerProfileEntity).findOneBy({ organisationId: org.id });
