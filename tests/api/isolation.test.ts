@@ -73,6 +73,7 @@ const sampleBodies: Record<string, () => object> = {
   'patch /api/orgs/{orgId}/offers/{offerId}': () => ({ priceMinor: 5000 }),
   'post /api/orgs/{orgId}/parts': () => PART,
   'patch /api/orgs/{orgId}/parts/{partId}': () => ({ stock: 3 }),
+  'put /api/orgs/{orgId}/service-area': () => AREA,
   'put /api/orgs/{orgId}/travel-policy': () => ({ freeWithinKm: 20, ratePerKmMinor: 80, currency: 'EUR', maxDistanceKm: 150 }),
   'put /api/orgs/{orgId}/technicians/{userId}/hours': () => HOURS,
 };

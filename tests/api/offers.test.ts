@@ -4,7 +4,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../setup/app';
 import { partnerWithTeam } from '../setup/accounts';
-import { bearer, CAPABILITIES } from '../setup/onboarding';
+import { AREA, approvedPartner, bearer, CAPABILITIES } from '../setup/onboarding';
 
 let t: TestApp;
 type Team = Awaited<ReturnType<typeof partnerWithTeam>>;
@@ -184,5 +184,56 @@ describe('working hours', () => {
     await request(t.app).put(hoursUrl(A, B.technician!.userId)).set(bearer(A.admin)).send(HOURS).expect(404);
     await request(t.app).get(hoursUrl(A, B.technician!.userId)).set(bearer(A.admin)).expect(404);
     expect(await count('working_hours', B.orgId)).toBe(0);
+  });
+});
+
+describe('service area', () => {
+  it('belongs to the application until approval, then moves here; bad values are field errors and nothing is saved', async () => {
+    // before approval: 409 naming the application
+    const draft = await request(t.app).put(`/api/orgs/${A.orgId}/service-area`).set(bearer(A.admin)).send(AREA).expect(409);
+    expect(draft.body.code).toBe('AREA_IN_APPLICATION');
+
+    const P = await approvedPartner(t.app, t.dataSource, { technician: true });
+    const url = `/api/orgs/${P.orgId}/service-area`;
+    const before = (await request(t.app).get(url).set(bearer(P.technician!)).expect(200)).body.data;
+    expect(before.area).toMatchObject({ baseLat: expect.any(Number), mode: expect.any(String) });
+
+    const far = await request(t.app).put(url).set(bearer(P.admin)).send({ ...AREA, mode: 'mobile', radiusKm: 600 }).expect(400);
+    expect(paths(far)).toEqual(['radiusKm']);
+    const off = await request(t.app).put(url).set(bearer(P.admin)).send({ ...AREA, baseLat: 95 }).expect(400);
+    expect(paths(off)).toEqual(['baseLat']);
+    await request(t.app).put(url).set(bearer(P.technician!)).send(AREA).expect(403);
+    expect((await request(t.app).get(url).set(bearer(P.admin)).expect(200)).body.data).toEqual(before);
+
+    const moved = { baseLabel: 'Munich', baseLat: 48.1351, baseLng: 11.582, mode: 'mobile', radiusKm: 45, workshopAddress: 'ignored for mobile work' };
+    const saved = await request(t.app).put(url).set(bearer(P.admin)).send(moved).expect(200);
+    expect(saved.body.data.area).toEqual({ ...moved, workshopAddress: null });
+    const [entry] = await t.dataSource.query("SELECT before_state, after_state FROM audit_log WHERE organisation_id = ? AND action = 'service-area.save'", [P.orgId]);
+    expect(entry).toBeDefined();
+  });
+});
+
+describe('audit', () => {
+  it('records every change to offers, parts, travel policy and hours with the state before and after', async () => {
+    const part = (await post(B, '/parts', { ...PART, name: 'Audited part' }).expect(201)).body.data;
+    await request(t.app).patch(`/api/orgs/${B.orgId}/parts/${part.id}`).set(bearer(B.admin)).send({ stock: 1 }).expect(200);
+    await request(t.app).delete(`/api/orgs/${B.orgId}/parts/${part.id}`).set(bearer(B.admin)).expect(200);
+    const offer = (await post(B, '/offers', OFFER).expect(201)).body.data;
+    await request(t.app).patch(`/api/orgs/${B.orgId}/offers/${offer.id}`).set(bearer(B.admin)).send({ priceMinor: 13_000 }).expect(200);
+    await request(t.app).delete(`/api/orgs/${B.orgId}/offers/${offer.id}`).set(bearer(B.admin)).expect(200);
+    const rows: { action: string; entity_id: string; before_state: unknown; after_state: unknown }[] = await t.dataSource.query(
+      "SELECT action, entity_id, before_state, after_state FROM audit_log WHERE organisation_id = ? AND entity_id IN (?, ?) ORDER BY id",
+      [B.orgId, part.id, offer.id],
+    );
+    expect(rows.map((r) => r.action)).toEqual(['part.create', 'part.update', 'part.delete', 'offer.create', 'offer.update', 'offer.delete']);
+    const state = (v: unknown) => (typeof v === 'string' ? JSON.parse(v) : v) as Record<string, unknown> | null;
+    const update = rows.find((r) => r.action === 'offer.update')!;
+    expect(state(update.before_state)).toMatchObject({ priceMinor: 4500 });
+    expect(state(update.after_state)).toMatchObject({ priceMinor: 13_000 });
+    expect(state(rows.find((r) => r.action === 'part.delete')!.after_state)).toBeNull();
+    const hours = await t.dataSource.query("SELECT COUNT(*) AS n FROM audit_log WHERE organisation_id = ? AND action = 'working-hours.save'", [A.orgId]);
+    const travel = await t.dataSource.query("SELECT COUNT(*) AS n FROM audit_log WHERE organisation_id = ? AND action = 'travel-policy.save'", [A.orgId]);
+    expect(Number(hours[0].n)).toBeGreaterThan(0);
+    expect(Number(travel[0].n)).toBeGreaterThan(0);
   });
 });

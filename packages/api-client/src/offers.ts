@@ -9,12 +9,15 @@ import {
   PartPatchSchema,
   PartnerSlotsSchema,
   PartSchema,
+  ServiceAreaInputSchema,
+  ServiceAreaSchema,
   TechnicianHoursSchema,
   TravelPolicyInputSchema,
   TravelPolicySchema,
   type Offer,
   type Part,
   type PartnerSlots,
+  type ServiceArea,
   type TechnicianHours,
   type TravelPolicy,
   type WorkingHoursDraft,
@@ -28,6 +31,7 @@ const OfferListResponse = z.object({ data: z.array(OfferSchema) });
 const PartResponse = z.object({ data: PartSchema });
 const PartListResponse = z.object({ data: z.array(PartSchema) });
 const TravelPolicyResponse = z.object({ data: TravelPolicySchema });
+const ServiceAreaResponse = z.object({ data: ServiceAreaSchema });
 const HoursResponse = z.object({ data: TechnicianHoursSchema });
 const SlotsResponse = z.object({ data: PartnerSlotsSchema });
 const Deleted = z.unknown();
@@ -37,6 +41,7 @@ export type OfferChange = z.input<typeof OfferPatchSchema>;
 export type PartDraft = z.input<typeof PartInputSchema>;
 export type PartChange = z.input<typeof PartPatchSchema>;
 export type TravelPolicyDraft = z.input<typeof TravelPolicyInputSchema>;
+export type ServiceAreaDraft = z.input<typeof ServiceAreaInputSchema>;
 
 export interface SlotsRequest {
   serviceType: string;
@@ -83,6 +88,13 @@ export async function getTravelPolicy(http: HttpClient, orgId: string, signal?: 
 }
 export async function saveTravelPolicy(http: HttpClient, orgId: string, body: TravelPolicyDraft): Promise<TravelPolicy> {
   return (await http.request('PUT', `${org(orgId)}/travel-policy`, { body, schema: TravelPolicyResponse })).data;
+}
+
+export async function getServiceArea(http: HttpClient, orgId: string, signal?: AbortSignal): Promise<ServiceArea> {
+  return (await http.request('GET', `${org(orgId)}/service-area`, { schema: ServiceAreaResponse, signal })).data;
+}
+export async function saveServiceArea(http: HttpClient, orgId: string, body: ServiceAreaDraft): Promise<ServiceArea> {
+  return (await http.request('PUT', `${org(orgId)}/service-area`, { body, schema: ServiceAreaResponse })).data;
 }
 
 export async function getWorkingHours(http: HttpClient, orgId: string, userId: string, signal?: AbortSignal): Promise<TechnicianHours> {

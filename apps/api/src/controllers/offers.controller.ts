@@ -1,6 +1,6 @@
 // Handlers for an organisation's offers, parts, travel policy and working hours (org guard ran first).
 import type { EntityManager } from 'typeorm';
-import type { OfferInput, OfferPatch, PartInput, PartPatch, TravelPolicyInput, WorkingHoursDraft } from '@emberline/domain';
+import type { OfferInput, OfferPatch, PartInput, PartPatch, ServiceAreaInput, TravelPolicyInput, WorkingHoursDraft } from '@emberline/domain';
 import type { AppContext } from '../app';
 import type { Actor } from '../lib/context';
 import * as offers from '../services/offers.service';
@@ -36,6 +36,9 @@ export function offersController({ dataSource }: AppContext) {
 
     getTravelPolicy: async ({ actor }: { actor: Actor }) => ({ data: await offers.getTravelPolicy(read(actor)) }),
     saveTravelPolicy: async ({ body, actor }: { body: TravelPolicyInput; actor: Actor }) => ({ data: await tx(actor, (ctx) => offers.saveTravelPolicy(ctx, body)) }),
+
+    getServiceArea: async ({ actor }: { actor: Actor }) => ({ data: await offers.getServiceArea(read(actor)) }),
+    saveServiceArea: async ({ body, actor }: { body: ServiceAreaInput; actor: Actor }) => ({ data: await tx(actor, (ctx) => offers.saveServiceArea(ctx, body)) }),
 
     getHours: async ({ params, actor }: { params: { userId: string }; actor: Actor }) => ({ data: await offers.getHours(read(actor), params.userId) }),
     saveHours: async ({ params, body, actor }: { params: { userId: string }; body: WorkingHoursDraft; actor: Actor }) => ({

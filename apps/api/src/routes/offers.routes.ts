@@ -9,6 +9,8 @@ import {
   PartInputSchema,
   PartPatchSchema,
   PartSchema,
+  ServiceAreaInputSchema,
+  ServiceAreaSchema,
   TechnicianHoursSchema,
   TravelPolicyInputSchema,
   TravelPolicySchema,
@@ -106,6 +108,25 @@ export function registerOfferRoutes(api: ApiRouter, app: AppContext): void {
       response: z.object({ data: TravelPolicySchema }),
     },
     c.saveTravelPolicy,
+  );
+  api.route(
+    { method: 'get', path: '/orgs/:orgId/service-area', summary: 'Where the organisation works', tags, ...read, params: OrgParams, response: z.object({ data: ServiceAreaSchema }) },
+    c.getServiceArea,
+  );
+  api.route(
+    {
+      method: 'put',
+      path: '/orgs/:orgId/service-area',
+      summary: 'Move the base or change the service area',
+      description: 'For approved (and suspended) organisations; before approval the area is a step of the application (409 AREA_IN_APPLICATION). The radius is 5 to 300 km.',
+      tags,
+      ...write,
+      params: OrgParams,
+      body: ServiceAreaInputSchema,
+      response: z.object({ data: ServiceAreaSchema }),
+      problems: [409],
+    },
+    c.saveServiceArea,
   );
   api.route(
     {

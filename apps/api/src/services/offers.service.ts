@@ -14,6 +14,8 @@ import {
   type Part,
   type PartInput,
   type PartPatch,
+  type ServiceArea,
+  type ServiceAreaInput,
   type TechnicianHours,
   type TravelPolicy,
   type TravelPolicyInput,
@@ -22,10 +24,17 @@ import {
 } from '@emberline/domain';
 import type { ServiceContext } from '../lib/context';
 import { createError, NotFound, ValidationFailed } from '../lib/errors';
+import { audit } from './audit.service';
 import { newId } from '../lib/secure-token';
 
 export const OfferExists = createError('OFFER_EXISTS', 409, 'The service type is already offered');
 export const PartInUse = createError('PART_IN_USE', 409, 'The part is in a parts kit');
+export const AreaLocked = createError('AREA_IN_APPLICATION', 409, 'The service area is part of the application');
+
+/** Audits a change to one of the organisation's records with its state before and after. */
+function record(ctx: ServiceContext, action: string, entityType: string, entityId: string, before: object | null, after: object | null): Promise<void> {
+  return audit(ctx, { action, entityType, entityId, organisationId: orgOf(ctx), before, after });
+}
 
 function orgOf(ctx: ServiceContext): string {
   if (!ctx.actor.organisationId) throw new Error('offers service called outside an organisation scope');
@@ -84,7 +93,9 @@ export async function createPart(ctx: ServiceContext, input: PartInput): Promise
     input.currency,
     input.stock,
   ]);
-  return toPart(await findPartRow(ctx, id));
+  const part = toPart(await findPartRow(ctx, id));
+  await record(ctx, 'part.create', 'part', id, null, part);
+  return part;
 }
 
 export async function updatePart(ctx: ServiceContext, partId: string, patch: PartPatch): Promise<Part> {
@@ -106,14 +117,17 @@ export async function updatePart(ctx: ServiceContext, partId: string, patch: Par
     partId,
     orgOf(ctx),
   ]);
-  return toPart(await findPartRow(ctx, partId));
+  const part = toPart(await findPartRow(ctx, partId));
+  await record(ctx, 'part.update', 'part', partId, toPart(row), part);
+  return part;
 }
 
 export async function deletePart(ctx: ServiceContext, partId: string): Promise<void> {
-  await findPartRow(ctx, partId, true);
+  const row = await findPartRow(ctx, partId, true);
   const [use]: { n: number | string }[] = await ctx.manager.query('SELECT COUNT(*) AS n FROM offer_part WHERE part_id = ?', [partId]);
   if (Number(use!.n) > 0) throw PartInUse('Remove the part from every parts kit before deleting it.');
   await ctx.manager.query('DELETE FROM part WHERE id = ? AND organisation_id = ?', [partId, orgOf(ctx)]);
+  await record(ctx, 'part.delete', 'part', partId, toPart(row), null);
 }
 
 // ---- offers ----
@@ -252,7 +266,9 @@ export async function createOffer(ctx: ServiceContext, input: OfferInput): Promi
     [id, orgOf(ctx), serviceTypeId, input.priceMinor, input.currency, input.durationMinutes, JSON.stringify(input.deposit), JSON.stringify(input.cancellation)],
   );
   await writeLinks(ctx, id, input);
-  return getOffer(ctx, id);
+  const offer = await getOffer(ctx, id);
+  await record(ctx, 'offer.create', 'offer', id, null, offer);
+  return offer;
 }
 
 export async function updateOffer(ctx: ServiceContext, offerId: string, patch: OfferPatch): Promise<Offer> {
@@ -279,12 +295,15 @@ export async function updateOffer(ctx: ServiceContext, offerId: string, patch: O
     orgOf(ctx),
   ]);
   await writeLinks(ctx, offerId, patch);
-  return getOffer(ctx, offerId);
+  const offer = await getOffer(ctx, offerId);
+  await record(ctx, 'offer.update', 'offer', offerId, current, offer);
+  return offer;
 }
 
 export async function deleteOffer(ctx: ServiceContext, offerId: string): Promise<void> {
-  await findOfferRow(ctx, offerId, true);
+  const before = (await shapeOffers(ctx.manager, [await findOfferRow(ctx, offerId, true)]))[0]!;
   await ctx.manager.query('DELETE FROM offer WHERE id = ? AND organisation_id = ?', [offerId, orgOf(ctx)]);
+  await record(ctx, 'offer.delete', 'offer', offerId, before, null);
 }
 
 // ---- travel policy ----
@@ -306,12 +325,69 @@ export async function getTravelPolicy(ctx: ServiceContext): Promise<TravelPolicy
 }
 
 export async function saveTravelPolicy(ctx: ServiceContext, input: TravelPolicyInput): Promise<TravelPolicy> {
+  const before = await getTravelPolicy(ctx);
   await ctx.manager.query(
     `INSERT INTO travel_policy (organisation_id, free_within_km, rate_per_km_minor, currency, max_distance_km) VALUES (?, ?, ?, ?, ?)
      ON DUPLICATE KEY UPDATE free_within_km = VALUES(free_within_km), rate_per_km_minor = VALUES(rate_per_km_minor), currency = VALUES(currency), max_distance_km = VALUES(max_distance_km)`,
     [orgOf(ctx), input.freeWithinKm, input.ratePerKmMinor, input.currency, input.maxDistanceKm],
   );
-  return getTravelPolicy(ctx);
+  const after = await getTravelPolicy(ctx);
+  await record(ctx, 'travel-policy.save', 'organisation', orgOf(ctx), before.configured ? before : null, after);
+  return after;
+}
+
+// ---- service area ----
+
+interface AreaRow {
+  status: string;
+  base_label: string | null;
+  base_lat: number | null;
+  base_lng: number | null;
+  mode: 'mobile' | 'workshop' | 'both' | null;
+  radius_km: number | null;
+  workshop_address: string | null;
+}
+
+async function areaRow(ctx: ServiceContext, lock = false): Promise<AreaRow> {
+  const [row]: AreaRow[] = await ctx.manager.query(
+    `SELECT o.status, p.base_label, p.base_lat, p.base_lng, p.mode, p.radius_km, p.workshop_address
+     FROM organisation o LEFT JOIN partner_profile p ON p.organisation_id = o.id WHERE o.id = ?${lock ? ' FOR UPDATE' : ''}`,
+    [orgOf(ctx)],
+  );
+  if (!row) throw NotFound('There is no such organisation.');
+  return row;
+}
+
+const toArea = (ctx: ServiceContext, r: AreaRow): ServiceArea => ({
+  organisationId: orgOf(ctx),
+  area:
+    r.base_lat === null || r.base_lng === null || !r.mode
+      ? null
+      : { baseLabel: r.base_label ?? '', baseLat: Number(r.base_lat), baseLng: Number(r.base_lng), mode: r.mode, radiusKm: r.radius_km === null ? null : Number(r.radius_km), workshopAddress: r.workshop_address },
+});
+
+export async function getServiceArea(ctx: ServiceContext): Promise<ServiceArea> {
+  return toArea(ctx, await areaRow(ctx));
+}
+
+/** Approved (or suspended) organisations move their area here; before approval it is a step of the application. */
+export async function saveServiceArea(ctx: ServiceContext, input: ServiceAreaInput): Promise<ServiceArea> {
+  const row = await areaRow(ctx, true);
+  if (row.status !== 'approved' && row.status !== 'suspended') throw AreaLocked('Until your organisation is approved, change the service area in your application.');
+  const before = toArea(ctx, row).area;
+  const workshopAddress = input.mode === 'mobile' ? null : (input.workshopAddress ?? null);
+  await ctx.manager.query('UPDATE partner_profile SET base_label = ?, base_lat = ?, base_lng = ?, mode = ?, radius_km = ?, workshop_address = ? WHERE organisation_id = ?', [
+    input.baseLabel,
+    input.baseLat,
+    input.baseLng,
+    input.mode,
+    input.radiusKm,
+    workshopAddress,
+    orgOf(ctx),
+  ]);
+  const after = await getServiceArea(ctx);
+  await record(ctx, 'service-area.save', 'organisation', orgOf(ctx), before, after.area);
+  return after;
 }
 
 // ---- working hours ----
@@ -331,10 +407,12 @@ export async function saveHours(ctx: ServiceContext, userId: string, draft: Work
   await assertMember(ctx, userId);
   // the route validated already; parse again so only the schema's output is ever stored
   const hours = WorkingHoursSchema.parse(draft);
+  const before = (await getHours(ctx, userId)).hours;
   await ctx.manager.query('INSERT INTO working_hours (organisation_id, user_id, hours) VALUES (?, ?, ?) ON DUPLICATE KEY UPDATE hours = VALUES(hours)', [
     orgOf(ctx),
     userId,
     JSON.stringify(hours),
   ]);
+  await record(ctx, 'working-hours.save', 'user', userId, before, hours);
   return getHours(ctx, userId);
 }

@@ -1,3 +1,4 @@
 // Geography for bookings: distances, service areas, bounding boxes and travel-time estimates.
 export * from './distance';
 export * from './travel';
+export * from './travel-fee';

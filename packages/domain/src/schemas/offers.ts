@@ -5,6 +5,7 @@ import { z } from 'zod';
 import { IdSchema } from './accounts';
 import { CatalogueCodeSchema } from './catalogue';
 import { InstantSchema, JobDurationMinutesSchema, WorkingHoursSchema } from './hours';
+import { AreaStepSchema } from './onboarding';
 
 export const CURRENCIES = ['EUR', 'SEK', 'NOK', 'DKK', 'CHF'] as const;
 export const CurrencySchema = z.enum(CURRENCIES, { error: `Choose one of ${CURRENCIES.join(', ')}` });
@@ -142,6 +143,25 @@ export const TravelPolicySchema = z.object({
   maxDistanceKm: z.number().int().nullable(),
 });
 export type TravelPolicy = z.infer<typeof TravelPolicySchema>;
+
+/** Where an approved organisation works: the same fields and rules as the application's area step. */
+export const ServiceAreaInputSchema = AreaStepSchema;
+export type ServiceAreaInput = z.output<typeof ServiceAreaInputSchema>;
+export const ServiceAreaSchema = z.object({
+  organisationId: IdSchema,
+  /** Null while the organisation has not set its base (only possible before its application). */
+  area: z
+    .object({
+      baseLabel: z.string(),
+      baseLat: z.number(),
+      baseLng: z.number(),
+      mode: z.enum(['mobile', 'workshop', 'both']),
+      radiusKm: z.number().int().nullable(),
+      workshopAddress: z.string().nullable(),
+    })
+    .nullable(),
+});
+export type ServiceArea = z.infer<typeof ServiceAreaSchema>;
 
 export const TechnicianHoursSchema = z.object({
   organisationId: IdSchema,
