@@ -8,3 +8,4 @@ export * from './vehicles';
 export * from './session-clients';
 export * from './onboarding';
 export * from './offers';
+export * from './search';

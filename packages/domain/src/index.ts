@@ -12,3 +12,7 @@ export * from './slots';
 export * from './schemas/hours';
 export * from './schemas/offers';
 export * from './vetting/insurance';
+export * from './schemas/eligibility';
+export * from './eligibility';
+export * from './schemas/search';
+export * from './search';
