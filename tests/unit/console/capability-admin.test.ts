@@ -15,6 +15,7 @@ import { catalogue } from './onboarding-fixtures';
 vi.mock('@/api/auth', () => ({ refreshSession: vi.fn(), signIn: vi.fn(), signOut: vi.fn() }));
 vi.mock('@/api/catalogue', () => ({ listCapabilities: vi.fn(), listServiceTypes: vi.fn() }));
 vi.mock('@/api/onboarding', () => ({ listAllCapabilities: vi.fn(), createCapability: vi.fn(), updateCapability: vi.fn() }));
+vi.mock('@/api/search-admin', () => ({ listEligibilityRules: vi.fn().mockResolvedValue([]) }));
 
 async function mountCatalogue() {
   vi.mocked(refreshSession).mockResolvedValue(session(me({ roles: ['network_admin'] })));

@@ -16,5 +16,5 @@ export const adminRoutes: RouteRecordRaw[] = [
   { path: 'admin/catalogue', name: 'catalogue', component: () => import('@/views/catalogue/index.vue'), meta: { title: 'nav.catalogue' } },
   { path: 'admin/mail-log', name: 'mail-log', component: () => import('@/views/admin/mail-log/index.vue'), meta: { title: 'nav.mailLog', roles: ['network_admin'] } },
   { path: 'admin/payouts', name: 'payouts', component: comingSoon, meta: { title: 'nav.payouts', roles: ['network_admin'], comingWith: 'issues.payouts' } },
-  { path: 'admin/coverage-gaps', name: 'coverage-gaps', component: comingSoon, meta: { title: 'nav.coverageGaps', roles: ['network_admin'], comingWith: 'issues.search' } },
+  { path: 'admin/coverage-gaps', name: 'coverage-gaps', component: () => import('@/views/admin/coverage-gaps/index.vue'), meta: { title: 'nav.coverageGaps', roles: ['network_admin'] } },
 ];
