@@ -16,3 +16,4 @@ export * from './schemas/eligibility';
 export * from './eligibility';
 export * from './schemas/search';
 export * from './search';
+export * from './quote';

@@ -1,0 +1,2 @@
+export * from './vat-rates';
+export * from './quote';
