@@ -17,3 +17,4 @@ export * from './eligibility';
 export * from './schemas/search';
 export * from './search';
 export * from './quote';
+export * from './schemas/bookings';

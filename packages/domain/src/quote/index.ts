@@ -1,2 +1,3 @@
 export * from './vat-rates';
 export * from './quote';
+export * from './lifecycle';
