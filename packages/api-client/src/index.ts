@@ -9,3 +9,4 @@ export * from './session-clients';
 export * from './onboarding';
 export * from './offers';
 export * from './search';
+export * from './bookings';
