@@ -24,8 +24,12 @@ function demoSignIns(): string {
 const t0 = performance.now();
 let db: MariaDbInstance | undefined;
 let mail: ChildProcess | undefined;
+let payments: ChildProcess | undefined;
 const MAIL_SMTP_PORT = Number(process.env.MAIL_CAPTURE_SMTP_PORT ?? 2525);
 const MAIL_HTTP_PORT = Number(process.env.MAIL_CAPTURE_HTTP_PORT ?? 2580);
+const PAYMENTS_FAKE_PORT = Number(process.env.PAYMENTS_FAKE_PORT ?? 4030);
+// a developer who points STRIPE_API_BASE elsewhere (the provider's own test service) needs no fake
+const RUN_PAYMENTS_FAKE = !process.env.STRIPE_API_BASE;
 
 /** Starts a helper process and resolves once it prints its ready line; rejects if it exits first. */
 function startChild(name: string, args: string[], env: NodeJS.ProcessEnv, ready: RegExp): Promise<ChildProcess> {
@@ -47,9 +51,11 @@ function startChild(name: string, args: string[], env: NodeJS.ProcessEnv, ready:
 }
 
 async function shutdown(code: number): Promise<never> {
-  if (mail && mail.exitCode === null) {
-    mail.kill('SIGTERM');
-    await new Promise((r) => mail!.once('exit', r));
+  for (const child of [mail, payments]) {
+    if (child && child.exitCode === null) {
+      child.kill('SIGTERM');
+      await new Promise((r) => child.once('exit', r));
+    }
   }
   if (db?.startedHere) {
     step('Stopping MariaDB…');
@@ -67,6 +73,7 @@ try {
     JWT_SECRET: process.env.JWT_SECRET ?? localSecret('jwtSecret', 48),
     SMTP_URL: process.env.SMTP_URL ?? `smtp://127.0.0.1:${MAIL_SMTP_PORT}`,
     MAIL_CAPTURE_URL: process.env.MAIL_CAPTURE_URL ?? `http://127.0.0.1:${MAIL_HTTP_PORT}`,
+    STRIPE_API_BASE: process.env.STRIPE_API_BASE ?? `http://127.0.0.1:${PAYMENTS_FAKE_PORT}`,
   };
   let config;
   try {
@@ -96,6 +103,17 @@ try {
     MAIL_CAPTURE_HTTP_PORT: String(MAIL_HTTP_PORT),
     MAIL_CAPTURE_FILE: path.join(root, 'var/mail/captured.json'),
   }, /Mail capture ready/);
+
+  if (RUN_PAYMENTS_FAKE) {
+    step(`Starting the payments fake (test payment page, port ${PAYMENTS_FAKE_PORT})…`);
+    payments = await startChild('payments fake', ['--import', 'tsx', path.join(root, 'apps/api/src/fakes/payments/server.ts')], {
+      ...env,
+      PAYMENTS_FAKE_PORT: String(PAYMENTS_FAKE_PORT),
+      // the API's webhook route; the fake signs with STRIPE_WEBHOOK_SECRET, the same as the API checks
+      PAYMENTS_FAKE_WEBHOOK_URL: `${config.publicUrl}/api/payments/webhook`,
+      PAYMENTS_FAKE_STATE_FILE: path.join(root, 'var/payments/state.json'),
+    }, /Payments fake ready/);
+  }
 
   step('Starting the API…');
   const api = spawn(process.execPath, ['--import', 'tsx', path.join(root, 'apps/api/src/server.ts')], { cwd: root, env, stdio: 'inherit' });
@@ -133,11 +151,12 @@ try {
                                (password in var/secrets.json)
   E-mail capture               SMTP 127.0.0.1:${MAIL_SMTP_PORT}; captured mail at http://127.0.0.1:${MAIL_HTTP_PORT}/messages
                                and in the Console's mail log (network admins)
+  Payments                     ${RUN_PAYMENTS_FAKE ? `local payments fake at http://127.0.0.1:${PAYMENTS_FAKE_PORT} (test payment page; state at /__fake/state)` : `provider API at ${env.STRIPE_API_BASE}`}
 
   Demo sign-ins, all with the password ${DEMO_PASSWORD}:
 ${demoSignIns()}
 
-  Press Ctrl-C to stop the API, the e-mail capture server and MariaDB.
+  Press Ctrl-C to stop the API, the e-mail capture server, the payments fake and MariaDB.
 `);
   }
 } catch (err) {

@@ -8,6 +8,7 @@ import path from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { expect } from 'vitest';
 import { createTestApp, type TestApp } from '../setup/app';
+import { startPaymentsFake, type TestPaymentsFake } from '../setup/payments';
 import { root } from '../../scripts/lib/project';
 
 const require = createRequire(import.meta.url);
@@ -17,6 +18,8 @@ export interface Harness {
   t: TestApp;
   baseUrl: string;
   browser: Browser;
+  /** The payments fake the app pays through; its webhooks go to this app's /api/payments/webhook. */
+  payments: TestPaymentsFake;
   close(): Promise<void>;
 }
 
@@ -33,7 +36,8 @@ export async function startHarness(env: Record<string, string> = {}): Promise<Ha
   // the port is chosen first so that links in e-mails point at this very server
   const port = await freePort();
   const baseUrl = `http://127.0.0.1:${port}`;
-  const t = await createTestApp({ SERVE_APPS: 'true', PUBLIC_URL: baseUrl, ...env });
+  const payments = await startPaymentsFake({ webhookTarget: `${baseUrl}/api/payments/webhook` });
+  const t = await createTestApp({ SERVE_APPS: 'true', PUBLIC_URL: baseUrl, ...payments.env, ...env });
   const server: Server = await new Promise((resolve) => {
     const s = t.app.listen(port, '127.0.0.1', () => resolve(s));
   });
@@ -46,10 +50,12 @@ export async function startHarness(env: Record<string, string> = {}): Promise<Ha
     t,
     baseUrl,
     browser,
+    payments,
     async close() {
       await browser.close();
       server.closeAllConnections();
       await new Promise((r) => server.close(r));
+      await payments.close();
       await t.close();
     },
   };

@@ -5,6 +5,10 @@ import { z } from 'zod';
 
 export const projectRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../..');
 
+/** Credentials of the local payments fake (apps/api/src/fakes/payments); refused in production. */
+export const LOCAL_PAYMENTS_SECRET_KEY = 'sk_test_emberline_local';
+export const LOCAL_PAYMENTS_WEBHOOK_SECRET = 'whsec_emberline_local';
+
 const port = (fallback: number) => z.coerce.number().int().min(1).max(65535).default(fallback);
 const flag = (fallback: boolean) =>
   z.enum(['true', 'false', '1', '0']).default(fallback ? 'true' : 'false').transform((v) => v === 'true' || v === '1');
@@ -44,8 +48,19 @@ export const EnvSchema = z.object({
   STORAGE_DRIVER: z.enum(['local']).default('local'),
   /** Directory of the local storage driver, outside any folder the server serves publicly. */
   UPLOADS_DIR: z.string().min(1).default('var/uploads').transform((dir) => path.resolve(projectRoot, dir)),
+  /** Secret API key of the payments provider. Outside production it defaults to the local fake's key. */
+  STRIPE_SECRET_KEY: z.string().regex(/^(sk|rk)_(test|live)_\w+$/, 'must be a secret key (sk_test_…, sk_live_…)').default(LOCAL_PAYMENTS_SECRET_KEY),
+  /** Signs the payments provider's webhooks. Outside production it defaults to the local fake's secret. */
+  STRIPE_WEBHOOK_SECRET: z.string().regex(/^whsec_\w+$/, 'must be a webhook signing secret (whsec_…)').default(LOCAL_PAYMENTS_WEBHOOK_SECRET),
+  /** Base URL of the payments provider's API. Unset: the real service in production, the local fake elsewhere. */
+  STRIPE_API_BASE: z.url({ protocol: /^https?$/, error: 'must be an http:// or https:// URL' }).optional(),
+  /** Port of the local payments fake (development and tests), which STRIPE_API_BASE points at when unset. */
+  PAYMENTS_FAKE_PORT: port(4030),
 }).superRefine((c, ctx) => {
   if (c.NODE_ENV === 'production' && !c.JWT_SECRET) ctx.addIssue({ code: 'custom', path: ['JWT_SECRET'], message: 'is required in production' });
+  // the local fake's credentials work nowhere else
+  if (c.NODE_ENV === 'production' && c.STRIPE_SECRET_KEY === LOCAL_PAYMENTS_SECRET_KEY) ctx.addIssue({ code: 'custom', path: ['STRIPE_SECRET_KEY'], message: 'is required in production' });
+  if (c.NODE_ENV === 'production' && c.STRIPE_WEBHOOK_SECRET === LOCAL_PAYMENTS_WEBHOOK_SECRET) ctx.addIssue({ code: 'custom', path: ['STRIPE_WEBHOOK_SECRET'], message: 'is required in production' });
   // the cost may only go below 12 to keep the test suite fast
   if (c.NODE_ENV !== 'test' && c.BCRYPT_COST < 12) ctx.addIssue({ code: 'custom', path: ['BCRYPT_COST'], message: 'must be at least 12 outside tests' });
 });
