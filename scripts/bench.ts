@@ -1,9 +1,13 @@
-// `npm run bench`: the benchmarks the issues name. Today: a warm `npm start` (packages and
-// MariaDB installed, apps built) until /api/health answers 200, median of 5 runs.
+// `npm run bench`: the benchmarks the issues name: the slot engine, the Directory search against a
+// generated network of 10,000 partners (scripts/lib/bench-search.ts), 50 owners racing for 10
+// booking starts (scripts/lib/bench-booking.ts), and a warm `npm start`
+// (packages and MariaDB installed, apps built) until /api/health answers 200, median of 5 runs.
 import { spawn, spawnSync } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
+import { benchBooking } from './lib/bench-booking';
+import { benchSearch } from './lib/bench-search';
 import { waitForHttp } from './lib/net';
 import { step } from './lib/output';
 import { root, varDir } from './lib/project';
@@ -28,6 +32,16 @@ if (wants('slots')) {
   step('Slot engine: 20 technicians × 28 days × 1,000 bookings (vitest bench)');
   const r = spawnSync(path.join(root, 'node_modules/.bin/vitest'), ['bench', '--run', 'tests/bench/slots.bench.ts', '--project', 'unit'], { cwd: root, stdio: 'inherit' });
   if (r.status !== 0) process.exitCode = 1;
+}
+
+if (wants('search')) {
+  step('Directory search: 10,000 partners, 50,000 offers, 500 searches and 10 s of load');
+  await benchSearch();
+}
+
+if (wants('booking')) {
+  step('Booking under contention: 50 owners, 10 starts of one technician, at the same moment');
+  await benchBooking();
 }
 
 if (!wants('start')) process.exit(process.exitCode ?? 0);

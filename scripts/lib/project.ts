@@ -40,6 +40,17 @@ export function testDatabase(name: 'emberline_test' | 'emberline_e2e', env = pro
   };
 }
 
+/** The search benchmark's server and database: its own port and data directory, never the dev or test data. */
+export function benchDatabase(env = process.env): DatabaseSettings {
+  return {
+    dir: path.join(varDir, 'bench-mariadb'),
+    port: Number(env.BENCH_DB_PORT ?? 3309),
+    name: 'emberline_bench',
+    user: 'emberline_bench',
+    password: localSecret('benchDbPassword'),
+  };
+}
+
 export function dbEnv(db: DatabaseSettings): Record<string, string> {
   return { DB_HOST: '127.0.0.1', DB_PORT: String(db.port), DB_NAME: db.name, DB_USER: db.user, DB_PASSWORD: db.password };
 }

@@ -6,12 +6,13 @@ import { readdirSync } from 'node:fs';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, type TestApp } from '../setup/app';
-import { linkFromMail, partnerWithTeam, uniqueEmail, type SignedIn } from '../setup/accounts';
+import { linkFromMail, partnerWithTeam, signUpAndVerify, uniqueEmail, type SignedIn } from '../setup/accounts';
 import { isoDay, pdfBytes } from '../setup/files';
 import { AREA, BUSINESS, CAPABILITIES, upload } from '../setup/onboarding';
+import { insertBooking } from '../setup/bookings';
 
 let t: TestApp;
-type Org = Awaited<ReturnType<typeof partnerWithTeam>> & { invitationId: string; name: string; invitee: string; documentId: string; offerId: string; partId: string };
+type Org = Awaited<ReturnType<typeof partnerWithTeam>> & { invitationId: string; name: string; invitee: string; documentId: string; offerId: string; partId: string; bookingId: string; bookingReference: string };
 let A: Org;
 let B: Org;
 
@@ -31,7 +32,19 @@ async function organisation(): Promise<Org> {
     .auth(o.admin.accessToken, { type: 'bearer' })
     .send({ ...OFFER, technicianUserIds: [o.technician!.userId], partsKit: [{ partId: part.body.data.id, quantity: 1 }] })
     .expect(201);
-  return { ...o, invitationId: inv.body.data.id, name: row.name, invitee, documentId: doc.body.data.id, offerId: offer.body.data.id, partId: part.body.data.id };
+  // a booking of the organisation (written directly: the matrix is about tenancy, not payments);
+  // its customer is the partner admin, so the organisation's own CSV export names them
+  const owner = await signUpAndVerify(t.app, t.dataSource, 'owner');
+  const booking = await insertBooking(t.dataSource, {
+    orgId: o.orgId,
+    technicianId: o.technician!.userId,
+    ownerId: owner.userId,
+    offerId: offer.body.data.id,
+    start: new Date(Date.now() + 14 * 86_400_000),
+    customerName: `Customer of ${row.name}`,
+    customerEmail: o.admin.email,
+  });
+  return { ...o, invitationId: inv.body.data.id, name: row.name, invitee, documentId: doc.body.data.id, offerId: offer.body.data.id, partId: part.body.data.id, bookingId: booking.id, bookingReference: booking.reference };
 }
 
 const PART = { name: 'Probe handset', partType: 'handset', unitPriceMinor: 1500, currency: 'EUR', stock: 4 };
@@ -60,6 +73,7 @@ const recordOf: Record<string, (o: Org) => string> = {
   documentId: (o) => o.documentId,
   offerId: (o) => o.offerId,
   partId: (o) => o.partId,
+  bookingId: (o) => o.bookingId,
 };
 
 /** A valid body for each operation that takes one, so refusals are about tenancy, not validation. */
@@ -76,6 +90,7 @@ const sampleBodies: Record<string, () => object> = {
   'put /api/orgs/{orgId}/service-area': () => AREA,
   'put /api/orgs/{orgId}/travel-policy': () => ({ freeWithinKm: 20, ratePerKmMinor: 80, currency: 'EUR', maxDistanceKm: 150 }),
   'put /api/orgs/{orgId}/technicians/{userId}/hours': () => HOURS,
+  'post /api/orgs/{orgId}/bookings/{bookingId}/decision': () => ({ action: 'accept' }),
 };
 
 /** Text fields and a real file for each multipart/form-data operation. */
@@ -95,7 +110,7 @@ let operations: Operation[] = [];
 
 async function fingerprint(): Promise<string> {
   const rows: { Table: string; Checksum: number }[] = await t.dataSource.query(
-    'CHECKSUM TABLE organisation, membership, invitation, user_account, audit_log, mail_outbox, refresh_token, partner_profile, organisation_capability, partner_document, offer, offer_technician, part, offer_part, travel_policy, working_hours',
+    'CHECKSUM TABLE organisation, membership, invitation, user_account, audit_log, mail_outbox, refresh_token, partner_profile, organisation_capability, partner_document, offer, offer_technician, part, offer_part, travel_policy, working_hours, booking, booking_event, payment_event',
   );
   // stored files count too: a refused upload must not leave one behind
   const files = readdirSync(t.uploadsDir, { recursive: true }).map(String).sort().join(',');
@@ -120,7 +135,7 @@ function call(op: Operation, url: string, who?: SignedIn): request.Test {
 function expectNothingOf(res: request.Response, other: Org) {
   // `instance` only echoes the URL the caller sent; everything else must say nothing of B
   const text = JSON.stringify({ ...res.body, instance: undefined });
-  for (const secret of [other.name, other.admin.email, other.technician!.email, other.invitee, other.technician!.userId, other.invitationId, other.documentId]) {
+  for (const secret of [other.name, other.admin.email, other.technician!.email, other.invitee, other.technician!.userId, other.invitationId, other.documentId, other.bookingReference]) {
     expect(text).not.toContain(secret);
   }
 }

@@ -22,7 +22,7 @@ export interface TestApp {
 
 export const TEST_JWT_SECRET = 'test-secret-for-emberline-api-tests-0123456789';
 
-export async function createTestApp(overrides: Record<string, string> = {}, o: { limits?: LimitSettings; storage?: Storage } = {}): Promise<TestApp> {
+export async function createTestApp(overrides: Record<string, string> = {}, o: { limits?: Partial<LimitSettings>; storage?: Storage } = {}): Promise<TestApp> {
   const db = inject('db');
   const uploadsDir = mkdtempSync(path.join(tmpdir(), 'emberline-uploads-'));
   const config = loadConfig({

@@ -33,10 +33,10 @@ export function upload(app: Express, who: SignedIn, orgId: string, fields: Recor
 }
 
 /** Saves every step and uploads insurance and registration, as the partner admin. */
-export async function fillApplication(app: Express, who: SignedIn, orgId: string, o: { business?: object; area?: object; insuranceDays?: number } = {}) {
+export async function fillApplication(app: Express, who: SignedIn, orgId: string, o: { business?: object; area?: object; insuranceDays?: number; capabilities?: typeof CAPABILITIES } = {}) {
   await request(app).put(`/api/orgs/${orgId}/application/business`).set(bearer(who)).send({ ...BUSINESS, ...o.business }).expect(200);
   await request(app).put(`/api/orgs/${orgId}/application/area`).set(bearer(who)).send({ ...AREA, ...o.area }).expect(200);
-  await request(app).put(`/api/orgs/${orgId}/application/capabilities`).set(bearer(who)).send(CAPABILITIES).expect(200);
+  await request(app).put(`/api/orgs/${orgId}/application/capabilities`).set(bearer(who)).send(o.capabilities ?? CAPABILITIES).expect(200);
   const insurance = await upload(app, who, orgId, { kind: 'insurance', expiresOn: isoDay(o.insuranceDays ?? 200) }, { bytes: pdfBytes('Liability insurance', orgId), name: 'insurance.pdf' });
   expect(insurance.status, JSON.stringify(insurance.body)).toBe(201);
   const registration = await upload(app, who, orgId, { kind: 'registration' }, { bytes: pdfBytes('Business registration', orgId), name: 'registration.pdf' });
@@ -45,7 +45,7 @@ export async function fillApplication(app: Express, who: SignedIn, orgId: string
 }
 
 /** A new partner organisation taken through submit and approval. */
-export async function approvedPartner(app: Express, ds: DataSource, o: { business?: object; area?: object; insuranceDays?: number; technician?: boolean } = {}) {
+export async function approvedPartner(app: Express, ds: DataSource, o: { business?: object; area?: object; insuranceDays?: number; technician?: boolean; capabilities?: typeof CAPABILITIES } = {}) {
   const team = await partnerWithTeam(app, ds, { technician: o.technician });
   const docs = await fillApplication(app, team.admin, team.orgId, o);
   await request(app).post(`/api/orgs/${team.orgId}/application/submit`).set(bearer(team.admin)).expect(200);

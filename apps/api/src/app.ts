@@ -17,6 +17,7 @@ import { createGuards, type Guards } from './middleware/auth';
 import { createLimiters, type LimitSettings, type Limiters } from './middleware/rate-limits';
 import type { AuthSettings } from './services/auth.service';
 import { createStorage, type Storage } from './storage';
+import { createPaymentGateway, type PaymentGateway } from './payments/gateway';
 import { registerAccountRoutes } from './routes/account.routes';
 import { registerAdminRoutes } from './routes/admin.routes';
 import { registerAuthRoutes } from './routes/auth.routes';
@@ -28,6 +29,10 @@ import { registerOnboardingRoutes } from './routes/onboarding.routes';
 import { registerOfferRoutes } from './routes/offers.routes';
 import { registerPartnerRoutes } from './routes/partners.routes';
 import { registerReviewRoutes } from './routes/review.routes';
+import { registerSearchRoutes } from './routes/search.routes';
+import { registerEligibilityRuleRoutes } from './routes/eligibility-rules.routes';
+import { registerBookingRoutes } from './routes/bookings.routes';
+import { registerPaymentWebhook } from './routes/payments.routes';
 import { docsRouter } from './routes/docs.routes';
 
 export interface AppDeps {
@@ -37,14 +42,17 @@ export interface AppDeps {
   version: string;
   /** Signs access tokens; from JWT_SECRET, or generated into var/ in development. */
   jwtSecret: string;
-  limits?: LimitSettings;
+  limits?: Partial<LimitSettings>;
   /** Where uploaded documents go; by default the driver the configuration names (tests pass a temporary directory). */
   storage?: Storage;
+  /** The payments provider; by default the SDK against the configured API base (tests pass one at a local fake). */
+  payments?: PaymentGateway;
 }
 
 /** What route modules and controllers get: the dependencies plus what createApp builds from them. */
 export interface AppContext extends AppDeps {
   storage: Storage;
+  payments: PaymentGateway;
   authSettings: AuthSettings;
   limiters: Limiters;
   guards: Guards;
@@ -116,6 +124,7 @@ export function createApp(deps: AppDeps): EmberlineApp {
   const context: AppContext = {
     ...deps,
     storage: deps.storage ?? createStorage(deps.config),
+    payments: deps.payments ?? createPaymentGateway(deps.config),
     authSettings: {
       jwtSecret: deps.jwtSecret,
       accessTtlSeconds: deps.config.ACCESS_TOKEN_TTL_SECONDS,
@@ -127,6 +136,8 @@ export function createApp(deps: AppDeps): EmberlineApp {
     guards: createGuards(deps.dataSource, deps.jwtSecret),
   };
   const api = new ApiRouter(registry, '/api', context.guards);
+  // the webhook reads its body raw (the signature covers the bytes): before the JSON parser
+  registerPaymentWebhook(api, context);
   api.router.use(express.json({ limit: '1mb' }));
   api.router.use(cookieParser());
   registerHealthRoutes(api, context);
@@ -140,6 +151,9 @@ export function createApp(deps: AppDeps): EmberlineApp {
   registerReviewRoutes(api, context);
   registerPartnerRoutes(api, context);
   registerOfferRoutes(api, context);
+  registerSearchRoutes(api, context);
+  registerEligibilityRuleRoutes(api, context);
+  registerBookingRoutes(api, context);
   api.router.use(docsRouter(registry, deps.version));
   api.router.use(apiNotFound);
 

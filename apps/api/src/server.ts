@@ -8,6 +8,7 @@ import { createApp } from './app';
 import { VERSION } from './version';
 import { localSecret } from './lib/local-secrets';
 import { createScheduler, type Scheduler } from './jobs/scheduler';
+import { loadPlaces } from './services/places.service';
 
 function fail(message: string, exitCode: number): never {
   process.stderr.write(`\n✖ ${message}\n\n`);
@@ -53,7 +54,16 @@ async function main(): Promise<void> {
     if (err.code === 'EACCES') fail(`No permission to listen on ${config.HOST}:${config.PORT}. Choose another PORT.`, 4);
     fail(`The server could not start: ${err.message}`, 4);
   });
-  server.on('listening', () => logger.info({ url: config.publicUrl }, 'Emberline API listening'));
+  server.on('listening', () => {
+    logger.info({ url: config.publicUrl }, 'Emberline API listening');
+    // the place index is built in a worker thread, so requests are answered meanwhile; the first
+    // look-up then need not wait for it
+    const t0 = performance.now();
+    loadPlaces().then(
+      (index) => logger.info({ places: index.names.length, ms: Math.round(performance.now() - t0) }, 'place index ready'),
+      (err: unknown) => logger.warn({ err: (err as Error).message }, 'place index not built yet; the first look-up will try again'),
+    );
+  });
 
   // the jobs read the same environment; with several instances a database lock keeps each run single
   let scheduler: Scheduler | undefined;

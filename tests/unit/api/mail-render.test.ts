@@ -5,6 +5,8 @@ import de from '../../../apps/api/src/mail/messages/de';
 import { ACTION_LINK, MAIL_TEMPLATES, MailRenderError, renderMail, resolveMailLocale, type MailTemplate, type MailTemplateData } from '../../../apps/api/src/mail/render';
 
 const link = 'https://emberline.test/verify-email?token=abc123';
+const when = { at: '2027-01-12T08:00:00.000Z', timeZone: 'Europe/Vienna' };
+const money = (minor: number) => ({ minor, currency: 'EUR' });
 const samples: { [T in MailTemplate]: MailTemplateData[T] } = {
   'verify-email': { name: 'Anna', link },
   'reset-password': { name: 'Anna', link, minutes: 30 },
@@ -19,6 +21,18 @@ const samples: { [T in MailTemplate]: MailTemplateData[T] } = {
   'organisation-reinstated': { name: 'Anna', organisationName: 'Nordlicht Mobile Heating', link },
   'insurance-expiring': { name: 'Anna', organisationName: 'Nordlicht Mobile Heating', expiresOn: '2027-03-01', link },
   'partner-suspended': { organisationName: 'Nordlicht Mobile Heating', reason: 'insurance expired', link },
+  'coverage-alert-confirmed': { serviceName: 'Parking heater conversion', days: 365 },
+  'coverage-alert-match': { serviceName: 'Parking heater conversion', organisationName: 'Nordlicht Mobile Heating', link },
+  'booking-requested': { name: 'Anna', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', partnerName: 'Nordlicht Mobile Heating', start: when, amount: money(33_432), link },
+  'booking-confirmed': { name: 'Anna', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', partnerName: 'Nordlicht Mobile Heating', start: when, place: 'Museumstraße 5, 6020 Innsbruck', link },
+  'booking-reminder': { name: 'Anna', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', partnerName: 'Nordlicht Mobile Heating', start: when, place: 'Museumstraße 5, 6020 Innsbruck', link },
+  'booking-rescheduled': { name: 'Anna', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', partnerName: 'Nordlicht Mobile Heating', start: when, previousStart: when, link },
+  'booking-cancelled': { name: 'Anna', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', start: when, fee: money(2000), refund: money(31_432), link },
+  'booking-declined': { name: 'Anna', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', partnerName: 'Nordlicht Mobile Heating', start: when, reason: 'The technician is ill', amount: money(33_432), link },
+  'booking-expired': { name: 'Anna', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', partnerName: 'Nordlicht Mobile Heating', start: when, amount: money(33_432), link },
+  'partner-booking-new': { name: 'Jonas', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', start: when, customerName: 'Anna Berg', place: 'Museumstraße 5, 6020 Innsbruck', link },
+  'partner-booking-cancelled': { name: 'Jonas', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', start: when, customerName: 'Anna Berg', fee: money(0), link },
+  'partner-booking-rescheduled': { name: 'Jonas', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', start: when, previousStart: when, customerName: 'Anna Berg', link },
 };
 const render = <T extends MailTemplate>(template: T, locale = 'en', data: Partial<MailTemplateData[T]> = {}) =>
   renderMail(template, locale, { ...samples[template], ...data } as MailTemplateData[T]);
@@ -106,6 +120,17 @@ describe('renderMail', () => {
     expect(render('reset-password', 'de', { minutes: 30 }).text).toContain('30 Minuten lang');
     expect(render('invitation', 'en', { days: 1 }).text).toContain('valid for 1 day.');
     expect(render('invitation', 'de', { days: 7 }).text).toContain('7 Tage lang');
+  });
+
+  // currency and date formats from Intl (ECMA-402 with CLDR data); 08:00 UTC is 09:00 in Vienna in January (CET, UTC+1)
+  it('writes money with its currency and a start as local time in the job\'s zone, in the mail language', () => {
+    const en = render('booking-cancelled', 'en', { fee: money(2000), refund: money(31_432) }).text;
+    expect(en).toContain('€20.00');
+    expect(en).toContain('€314.32');
+    for (const part of ['Tuesday', 'January', '12', '2027', '09:00']) expect(en).toContain(part);
+    const de = render('booking-cancelled', 'de', { fee: money(2000), refund: money(31_432) }).text;
+    expect(de).toContain('20,00\u00a0€');
+    for (const part of ['Dienstag', '12. Januar 2027', '09:00']) expect(de).toContain(part);
   });
 
   it('names the role in the mail language', () => {

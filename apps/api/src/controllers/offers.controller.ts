@@ -4,10 +4,11 @@ import type { OfferInput, OfferPatch, PartInput, PartPatch, ServiceAreaInput, Tr
 import type { AppContext } from '../app';
 import type { Actor } from '../lib/context';
 import * as offers from '../services/offers.service';
+import { notifyCoverageAlerts } from '../services/coverage.service';
 
 const DELETED = { deleted: true as const };
 
-export function offersController({ dataSource }: AppContext) {
+export function offersController({ dataSource, config }: AppContext) {
   const tx = <T>(actor: Actor, fn: (ctx: { manager: EntityManager; actor: Actor }) => Promise<T>) => dataSource.transaction((manager) => fn({ manager, actor }));
   const read = (actor: Actor) => ({ manager: dataSource.manager, actor });
   const meta = (actor: Actor) => ({ organisationId: actor.organisationId! });
@@ -15,7 +16,14 @@ export function offersController({ dataSource }: AppContext) {
   return {
     listOffers: async ({ actor }: { actor: Actor }) => ({ data: await offers.listOffers(read(actor)), meta: meta(actor) }),
     getOffer: async ({ params, actor }: { params: { offerId: string }; actor: Actor }) => ({ data: await offers.getOffer(read(actor), params.offerId) }),
-    createOffer: async ({ body, actor }: { body: OfferInput; actor: Actor }) => ({ data: await tx(actor, (ctx) => offers.createOffer(ctx, body)) }),
+    createOffer: async ({ body, actor }: { body: OfferInput; actor: Actor }) => ({
+      data: await tx(actor, async (ctx) => {
+        const offer = await offers.createOffer(ctx, body);
+        // owners waiting for this service where the (approved) partner works hear about it now
+        await notifyCoverageAlerts(ctx.manager, offer.organisationId, { publicUrl: config.publicUrl, serviceTypeCodes: [offer.serviceTypeCode] });
+        return offer;
+      }),
+    }),
     updateOffer: async ({ params, body, actor }: { params: { offerId: string }; body: OfferPatch; actor: Actor }) => ({
       data: await tx(actor, (ctx) => offers.updateOffer(ctx, params.offerId, body)),
     }),

@@ -7,6 +7,7 @@ import type { Actor } from '../lib/context';
 import * as catalogue from '../services/catalogue.service';
 import { todayUtc } from '../services/onboarding.service';
 import * as review from '../services/review.service';
+import { forgetSearchCatalogue } from '../services/search-catalogue';
 
 export function reviewController({ dataSource, config }: AppContext) {
   const tx = <T>(actor: Actor, fn: (ctx: { manager: EntityManager; actor: Actor }) => Promise<T>) => dataSource.transaction((manager) => fn({ manager, actor }));
@@ -23,11 +24,16 @@ export function reviewController({ dataSource, config }: AppContext) {
       return { data: await review.getReview(read(actor), params.orgId, todayUtc()) };
     },
     listCapabilities: async ({ actor }: { actor: Actor }) => ({ data: await catalogue.listAllCapabilities(read(actor)) }),
-    createCapability: async ({ body, actor }: { body: z.output<typeof CapabilityInputSchema>; actor: Actor }) => ({
-      data: await tx(actor, (ctx) => catalogue.createCapability(ctx, body)),
-    }),
-    updateCapability: async ({ params, body, actor }: { params: { code: string }; body: z.output<typeof CapabilityPatchSchema>; actor: Actor }) => ({
-      data: await tx(actor, (ctx) => catalogue.updateCapability(ctx, params.code, body)),
-    }),
+    // the search keeps capability names in memory: forget them once a change is committed
+    createCapability: async ({ body, actor }: { body: z.output<typeof CapabilityInputSchema>; actor: Actor }) => {
+      const data = await tx(actor, (ctx) => catalogue.createCapability(ctx, body));
+      forgetSearchCatalogue();
+      return { data };
+    },
+    updateCapability: async ({ params, body, actor }: { params: { code: string }; body: z.output<typeof CapabilityPatchSchema>; actor: Actor }) => {
+      const data = await tx(actor, (ctx) => catalogue.updateCapability(ctx, params.code, body));
+      forgetSearchCatalogue();
+      return { data };
+    },
   };
 }

@@ -3,6 +3,13 @@ import { Column, Entity, PrimaryColumn } from 'typeorm';
 
 export type MailStatus = 'pending' | 'sent' | 'failed';
 
+/** A file sent with the message, e.g. a calendar invitation; `content` is base64. */
+export interface MailAttachment {
+  filename: string;
+  contentType: string;
+  content: string;
+}
+
 @Entity({ name: 'mail_outbox' })
 export class MailOutboxEntity {
   @PrimaryColumn({ type: 'char', length: 36 })
@@ -25,6 +32,9 @@ export class MailOutboxEntity {
 
   @Column({ type: 'mediumtext', name: 'html_body' })
   html!: string;
+
+  @Column({ type: 'json', nullable: true })
+  attachments!: MailAttachment[] | null;
 
   @Column({ type: 'varchar', length: 12, default: 'pending' })
   status!: MailStatus;

@@ -1,5 +1,6 @@
-// Runs the scheduled jobs with Bree, each run in its own worker thread: the mail sender and the
-// daily insurance check.
+// Runs the scheduled jobs with Bree, each run in its own worker thread: the mail sender, the
+// daily insurance check, the daily clean-up of old coverage gaps and alerts, the minutely release
+// of lapsed booking holds, and the booking reminders.
 import { fileURLToPath } from 'node:url';
 import Bree from 'bree';
 import { loadConfig } from '../config';
@@ -9,6 +10,8 @@ import type { Logger } from '../lib/logger';
 const RUNNER = fileURLToPath(new URL('./run-ts-job.mjs', import.meta.url));
 /** A run that hangs (a stuck socket) is ended so the next interval can start a fresh one. */
 const MAX_RUN_MS = 5 * 60_000;
+const DAY_MS = 86_400_000;
+const MINUTE_MS = 60_000;
 
 export interface SchedulerOptions {
   /** The environment the jobs read their configuration from (`loadConfig`), usually process.env. */
@@ -59,13 +62,38 @@ export function createScheduler({ env, logger }: SchedulerOptions): Scheduler {
         closeWorkerAfterMs: MAX_RUN_MS,
         worker: { env: workerEnv },
       },
+      {
+        name: 'coverage-retention',
+        path: RUNNER,
+        // a day after start, then daily: nothing is urgent, and start-up stays light
+        interval: DAY_MS,
+        closeWorkerAfterMs: MAX_RUN_MS,
+        worker: { env: workerEnv },
+      },
+      {
+        name: 'expire-holds',
+        path: RUNNER,
+        // a minute after start, then every minute: a held slot is free again within a minute of
+        // its hold lapsing (not at start, where the mail sender and the insurance check go first)
+        interval: MINUTE_MS,
+        closeWorkerAfterMs: MAX_RUN_MS,
+        worker: { env: workerEnv },
+      },
+      {
+        name: 'booking-reminders',
+        path: RUNNER,
+        // every 15 minutes from start: a reminder goes out between 24 h and 23¾ h before the start
+        interval: 15 * MINUTE_MS,
+        closeWorkerAfterMs: MAX_RUN_MS,
+        worker: { env: workerEnv },
+      },
     ],
   });
 
   return {
     async start() {
       await bree.start();
-      log.info({ jobs: ['send-mail', 'insurance-expiry'], mailIntervalSeconds: config.MAIL_INTERVAL_SECONDS, insuranceCheckIntervalHours: config.INSURANCE_CHECK_INTERVAL_HOURS }, 'scheduler started');
+      log.info({ jobs: ['send-mail', 'insurance-expiry', 'coverage-retention', 'expire-holds', 'booking-reminders'], mailIntervalSeconds: config.MAIL_INTERVAL_SECONDS, insuranceCheckIntervalHours: config.INSURANCE_CHECK_INTERVAL_HOURS }, 'scheduler started');
     },
     async stop() {
       await bree.stop();

@@ -37,6 +37,8 @@ export interface RouteSpec<Q extends AnyObject, P extends AnyObject, B extends z
   before?: RequestHandler[];
   /** Needs a signed-in account (bearer access token). */
   auth?: boolean;
+  /** Public, but a caller who sends a bearer token is signed in (the handler may show them more). */
+  optionalAuth?: boolean;
   /** An /orgs/:orgId route: the caller must be a member (or a network admin); others get 404. */
   org?: boolean;
   /** The caller needs one of these roles (platform roles, or the role held in the organisation). */
@@ -154,7 +156,7 @@ export class ApiRouter {
     // guards first: nobody's upload is read before we know who they are and where they may write
     const chain: RequestHandler[] = [
       ...(spec.before ?? []),
-      ...(needsAuth ? [this.guards.authenticate] : []),
+      ...(needsAuth ? [this.guards.authenticate] : spec.optionalAuth ? [this.guards.optionalAuthenticate] : []),
       ...(spec.org ? [this.guards.orgScope] : []),
       ...(spec.roles ? [this.guards.requireRoles(spec.roles)] : []),
       ...(spec.multipart ? [multipartUpload(spec.multipart)] : []),
@@ -165,7 +167,7 @@ export class ApiRouter {
   private document(spec: RouteSpec<AnyObject, AnyObject, z.ZodType, z.ZodType>): void {
     const openApiPath = (this.mountPath + spec.path).replace(/:([A-Za-z0-9_]+)/g, '{$1}');
     const needsAuth = spec.auth || spec.org || !!spec.roles;
-    const problems = new Set([400, 500, ...(needsAuth ? [401] : []), ...(spec.roles ? [403] : []), ...(spec.org ? [404] : []), ...(spec.before?.length ? [429] : []), ...(spec.multipart ? [413] : []), ...(spec.problems ?? [])]);
+    const problems = new Set([400, 500, ...(needsAuth || spec.optionalAuth ? [401] : []), ...(spec.roles ? [403] : []), ...(spec.org ? [404] : []), ...(spec.before?.length ? [429] : []), ...(spec.multipart ? [413] : []), ...(spec.problems ?? [])]);
     if (!spec.response && !spec.produces) throw new Error(`${spec.method} ${spec.path} declares neither a response schema nor the files it produces`);
     const success = spec.produces
       ? Object.fromEntries(spec.produces.map((type) => [type, { schema: { type: 'string' as const, format: 'binary' } }]))
@@ -188,7 +190,7 @@ export class ApiRouter {
       summary: spec.summary,
       description: spec.description,
       tags: spec.tags,
-      security: needsAuth ? [{ bearerAuth: [] }] : undefined,
+      security: needsAuth ? [{ bearerAuth: [] }] : spec.optionalAuth ? [{}, { bearerAuth: [] }] : undefined,
       request: {
         query: spec.query as RouteParameter,
         params: spec.params as RouteParameter,

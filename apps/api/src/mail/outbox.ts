@@ -2,7 +2,7 @@
 import { randomUUID } from 'node:crypto';
 import { createTransport } from 'nodemailer';
 import { LessThanOrEqual, type DataSource, type EntityManager } from 'typeorm';
-import { MailOutboxEntity } from '../entities/mail-outbox.entity';
+import { MailOutboxEntity, type MailAttachment } from '../entities/mail-outbox.entity';
 import type { Logger } from '../lib/logger';
 import { renderMail, resolveMailLocale, type MailTemplate, type MailTemplateData } from './render';
 
@@ -26,6 +26,8 @@ export interface OutgoingMail {
   html: string;
   messageId: string;
   headers: Record<string, string>;
+  /** Only present when the message carries files (nodemailer's attachment shape). */
+  attachments?: { filename: string; contentType: string; content: string; encoding: 'base64' }[];
 }
 
 /** The part of a nodemailer transport the outbox uses (tests may pass a stand-in). */
@@ -38,6 +40,8 @@ export interface EnqueueMail<T extends MailTemplate> {
   template: T;
   locale: string;
   data: MailTemplateData[T];
+  /** Files to send along, e.g. the calendar invitation of a booking confirmation. */
+  attachments?: MailAttachment[];
 }
 
 /**
@@ -56,6 +60,7 @@ export async function enqueueMail<T extends MailTemplate>(manager: EntityManager
     subject: rendered.subject.length > SUBJECT_MAX ? `${rendered.subject.slice(0, SUBJECT_MAX - 1)}…` : rendered.subject,
     text: rendered.text,
     html: rendered.html,
+    attachments: mail.attachments?.length ? mail.attachments : null,
     status: 'pending',
     attempts: 0,
     nextAttemptAt: now,
@@ -154,6 +159,7 @@ export async function processOutbox(options: ProcessOutboxOptions): Promise<Proc
           html: row.html,
           messageId,
           headers: { [OUTBOX_ID_HEADER]: row.id },
+          ...(row.attachments?.length ? { attachments: row.attachments.map((a) => ({ ...a, encoding: 'base64' as const })) } : {}),
         });
         await runner.manager.update(MailOutboxEntity, { id: row.id }, { status: 'sent', attempts, sentAt: now, messageId: info.messageId ?? messageId, lastError: null });
         result.sent++;

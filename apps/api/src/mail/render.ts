@@ -20,8 +20,40 @@ export interface MailTemplateData {
   'insurance-expiring': { name: string; organisationName: string; expiresOn: string; link: string };
   /** To network admins: a partner was suspended by the system (e.g. its insurance expired). */
   'partner-suspended': { organisationName: string; reason: string; link: string };
+  /** To an owner who asked to hear when someone covers a place: stored, and how long. */
+  'coverage-alert-confirmed': { serviceName: string; days: number };
+  /** To that owner: a partner now works there; the link opens the Directory's search. */
+  'coverage-alert-match': { serviceName: string; organisationName: string; link: string };
+  /** To the owner: the payment is authorised and the booking waits for the partner. */
+  'booking-requested': { name: string; reference: string; serviceName: string; partnerName: string; start: MailWhen; amount: MailMoney; link: string };
+  /** To the owner: the partner confirmed (sent with the calendar invitation). */
+  'booking-confirmed': { name: string; reference: string; serviceName: string; partnerName: string; start: MailWhen; place: string; link: string };
+  /** To the owner, a day before the start. */
+  'booking-reminder': { name: string; reference: string; serviceName: string; partnerName: string; start: MailWhen; place: string; link: string };
+  'booking-rescheduled': { name: string; reference: string; serviceName: string; partnerName: string; start: MailWhen; previousStart: MailWhen; link: string };
+  /** To the owner who cancelled: what the policy charged and what was released. */
+  'booking-cancelled': { name: string; reference: string; serviceName: string; start: MailWhen; fee: MailMoney; refund: MailMoney; link: string };
+  /** To the owner: the partner declined or cancelled; the hold is released. */
+  'booking-declined': { name: string; reference: string; serviceName: string; partnerName: string; start: MailWhen; reason: string; amount: MailMoney; link: string };
+  /** To the owner: nobody confirmed before the start; the hold is released. */
+  'booking-expired': { name: string; reference: string; serviceName: string; partnerName: string; start: MailWhen; amount: MailMoney; link: string };
+  /** To the partner admins and the assigned technician. */
+  'partner-booking-new': { name: string; reference: string; serviceName: string; start: MailWhen; customerName: string; place: string; link: string };
+  'partner-booking-cancelled': { name: string; reference: string; serviceName: string; start: MailWhen; customerName: string; fee: MailMoney; link: string };
+  'partner-booking-rescheduled': { name: string; reference: string; serviceName: string; start: MailWhen; previousStart: MailWhen; customerName: string; link: string };
 }
 export type MailTemplate = keyof MailTemplateData;
+
+/** An amount in minor units; written in the mail language with the currency (e.g. "€265.00", "265,00 €"). */
+export interface MailMoney {
+  minor: number;
+  currency: string;
+}
+/** An instant written as local time in the zone the job happens in, with the zone's abbreviation. */
+export interface MailWhen {
+  at: string;
+  timeZone: string;
+}
 
 export const MAIL_LOCALES = ['en', 'de'] as const;
 export type MailLocale = (typeof MAIL_LOCALES)[number];
@@ -49,6 +81,18 @@ export const ACTION_LINK: { readonly [T in MailTemplate]: (keyof MailTemplateDat
   'organisation-reinstated': 'link',
   'insurance-expiring': 'link',
   'partner-suspended': 'link',
+  'coverage-alert-confirmed': null,
+  'coverage-alert-match': 'link',
+  'booking-requested': 'link',
+  'booking-confirmed': 'link',
+  'booking-reminder': 'link',
+  'booking-rescheduled': 'link',
+  'booking-cancelled': 'link',
+  'booking-declined': 'link',
+  'booking-expired': 'link',
+  'partner-booking-new': 'link',
+  'partner-booking-cancelled': 'link',
+  'partner-booking-rescheduled': 'link',
 };
 export const MAIL_TEMPLATES = Object.keys(ACTION_LINK) as MailTemplate[];
 
@@ -57,6 +101,22 @@ const LINK_FIELDS = new Set(['link', 'resetLink']);
 const DURATION_UNITS: Record<string, 'minute' | 'day'> = { minutes: 'minute', days: 'day' };
 /** Calendar dates are YYYY-MM-DD in the data and read as "1 March 2027" / "1. März 2027". */
 const DATE_FIELDS = new Set(['expiresOn']);
+/** Money ({ minor, currency }) and instants ({ at, timeZone }) in the data, written with Intl in the mail language. */
+const MONEY_FIELDS = new Set(['amount', 'fee', 'refund']);
+const WHEN_FIELDS = new Set(['start', 'previousStart']);
+
+const isMoney = (v: unknown): v is MailMoney => typeof v === 'object' && v !== null && Number.isInteger((v as MailMoney).minor) && typeof (v as MailMoney).currency === 'string';
+const isWhen = (v: unknown): v is MailWhen => typeof v === 'object' && v !== null && typeof (v as MailWhen).at === 'string' && typeof (v as MailWhen).timeZone === 'string';
+
+function formatMoney(locale: MailLocale, m: MailMoney): string {
+  const format = new Intl.NumberFormat(locale, { style: 'currency', currency: m.currency });
+  // the currency's minor unit as Intl knows it (ISO 4217: 2 for every currency we price in)
+  return format.format(m.minor / 10 ** (format.resolvedOptions().maximumFractionDigits ?? 2));
+}
+
+function formatWhen(locale: MailLocale, w: MailWhen): string {
+  return new Intl.DateTimeFormat(locale, { weekday: 'long', day: 'numeric', month: 'long', year: 'numeric', hour: '2-digit', minute: '2-digit', hourCycle: 'h23', timeZoneName: 'short', timeZone: w.timeZone }).format(new Date(w.at));
+}
 
 const colour = { text: '#1e293b', muted: '#64748b', secondary: '#334155', ember: '#c2410c', page: '#f8fafc', line: '#e2e8f0', white: '#ffffff' };
 // the same stack as the apps' theme, so the mail reads like the product
@@ -101,6 +161,8 @@ function formatValues(locale: MailLocale, messages: MailMessages, data: Record<s
     else if (DATE_FIELDS.has(key) && typeof value === 'string' && /^\d{4}-\d{2}-\d{2}$/.test(value)) {
       values[key] = new Intl.DateTimeFormat(locale, { dateStyle: 'long', timeZone: 'UTC' }).format(new Date(`${value}T00:00:00Z`));
     }
+    else if (MONEY_FIELDS.has(key) && isMoney(value)) values[key] = formatMoney(locale, value);
+    else if (WHEN_FIELDS.has(key) && isWhen(value)) values[key] = formatWhen(locale, value);
     else values[key] = String(value);
   }
   return values;

@@ -23,6 +23,8 @@ declare module 'express-serve-static-core' {
 
 export interface Guards {
   authenticate: RequestHandler;
+  /** Signs the caller in when a bearer token is sent (a bad one is still 401); anonymous otherwise. */
+  optionalAuthenticate: RequestHandler;
   orgScope: RequestHandler;
   requireRoles(roles: Role[]): RequestHandler;
 }
@@ -61,6 +63,11 @@ export function createGuards(dataSource: DataSource, jwtSecret: string): Guards 
     })(req, res, next);
   };
 
+  const optionalAuthenticate: RequestHandler = (req, res, next) => {
+    if (!req.headers.authorization) return next();
+    authenticate(req, res, next);
+  };
+
   /** For /orgs/:orgId/… — members act in their organisation; network admins in any. Others get 404. */
   const orgScope: RequestHandler = async (req: Request, _res: Response, next: NextFunction) => {
     const user = req.account;
@@ -86,5 +93,5 @@ export function createGuards(dataSource: DataSource, jwtSecret: string): Guards 
     next();
   };
 
-  return { authenticate, orgScope, requireRoles };
+  return { authenticate, optionalAuthenticate, orgScope, requireRoles };
 }

@@ -7,12 +7,20 @@ import { createError } from '../lib/errors';
 
 const TooManyRequests = createError('TOO_MANY_REQUESTS', 429, 'Too many attempts');
 
+type PairLimit = { perIp: number; perAccount: number; windowMinutes: number };
+type IpLimit = { perIp: number; windowMinutes: number };
+
 export interface LimitSettings {
   /** Requests per window per IP and per account for each group. */
-  signIn: { perIp: number; perAccount: number; windowMinutes: number };
-  signUp: { perIp: number; perAccount: number; windowMinutes: number };
-  reset: { perIp: number; perAccount: number; windowMinutes: number };
-  invitation: { perIp: number; perAccount: number; windowMinutes: number };
+  signIn: PairLimit;
+  signUp: PairLimit;
+  reset: PairLimit;
+  invitation: PairLimit;
+  /** "Tell me when someone covers this": per IP and per e-mail address, like sign-up. */
+  coverageAlert: PairLimit;
+  /** The public search and place look-up are anonymous: per IP only. */
+  search: IpLimit;
+  places: IpLimit;
 }
 
 export const DEFAULT_LIMITS: LimitSettings = {
@@ -20,6 +28,10 @@ export const DEFAULT_LIMITS: LimitSettings = {
   signUp: { perIp: 20, perAccount: 5, windowMinutes: 60 },
   reset: { perIp: 20, perAccount: 5, windowMinutes: 60 },
   invitation: { perIp: 60, perAccount: 30, windowMinutes: 60 },
+  coverageAlert: { perIp: 20, perAccount: 5, windowMinutes: 60 },
+  // a person filtering a result list or typing a place name, with room for a shared address
+  search: { perIp: 300, windowMinutes: 1 },
+  places: { perIp: 600, windowMinutes: 1 },
 };
 
 const accountKey = (req: Request): string => {
@@ -41,12 +53,18 @@ function limiter(limit: number, windowMinutes: number, key: 'ip' | 'account', wh
 
 export type Limiters = Record<keyof LimitSettings, RequestHandler[]>;
 
-export function createLimiters(settings: LimitSettings = DEFAULT_LIMITS): Limiters {
-  const pair = (s: LimitSettings[keyof LimitSettings], what: string) => [limiter(s.perIp, s.windowMinutes, 'ip', what), limiter(s.perAccount, s.windowMinutes, 'account', what)];
+/** Settings left out (tests, benchmarks) keep their defaults. */
+export function createLimiters(overrides: Partial<LimitSettings> = {}): Limiters {
+  const settings: LimitSettings = { ...DEFAULT_LIMITS, ...overrides };
+  const pair = (s: PairLimit, what: string) => [limiter(s.perIp, s.windowMinutes, 'ip', what), limiter(s.perAccount, s.windowMinutes, 'account', what)];
+  const ip = (s: IpLimit, what: string) => [limiter(s.perIp, s.windowMinutes, 'ip', what)];
   return {
     signIn: pair(settings.signIn, 'sign-in'),
     signUp: pair(settings.signUp, 'sign-up'),
     reset: pair(settings.reset, 'password reset'),
     invitation: pair(settings.invitation, 'invitation'),
+    coverageAlert: pair(settings.coverageAlert, 'coverage alert'),
+    search: ip(settings.search, 'search'),
+    places: ip(settings.places, 'place look-up'),
   };
 }

@@ -6,6 +6,9 @@ import { PaymentDeclined, PaymentIdempotencyConflict, PaymentRejected, PaymentsU
 
 export type PaymentsConfig = Pick<Config, 'NODE_ENV' | 'STRIPE_SECRET_KEY' | 'STRIPE_WEBHOOK_SECRET' | 'STRIPE_API_BASE' | 'PAYMENTS_FAKE_PORT'>;
 
+/** The header the provider signs its webhooks in. */
+export const WEBHOOK_SIGNATURE_HEADER = 'stripe-signature';
+
 /** A verified webhook event, as the provider's SDK types it. */
 export type PaymentEvent = Stripe.Event;
 

@@ -1,6 +1,6 @@
 // Public Directory routes for partners.
 import { z } from 'zod';
-import { IdSchema, MAX_SLOT_SEARCH_DAYS, PartnerSlotsSchema, PublicPartnerSchema, SLOT_LIST_LIMIT, SlotsQuerySchema } from '@emberline/domain';
+import { IdSchema, MAX_SLOT_SEARCH_DAYS, PartnerProfileSchema, PartnerSlotsSchema, PublicPartnerSchema, SLOT_LIST_LIMIT, SlotsQuerySchema } from '@emberline/domain';
 import type { AppContext } from '../app';
 import type { ApiRouter } from '../lib/api-router';
 import { partnersController } from '../controllers/partners.controller';
@@ -16,6 +16,20 @@ export function registerPartnerRoutes(api: ApiRouter, app: AppContext): void {
       response: z.object({ data: z.array(PublicPartnerSchema) }),
     },
     c.list,
+  );
+  api.route(
+    {
+      method: 'get',
+      path: '/partners/:partnerId',
+      summary: 'The public profile of an approved partner',
+      description:
+        'Offers with labour, parts-kit total and duration (net, in the offer\'s currency), equipment, travel policy, and the weekly hours of the technicians on any offer (their union, in the first technician\'s time zone). A partner that is not approved is 404. Ratings and reviews arrive with bookings.',
+      tags: ['Directory'],
+      params: z.object({ partnerId: IdSchema }),
+      response: z.object({ data: PartnerProfileSchema }),
+      problems: [404],
+    },
+    c.profile,
   );
   api.route(
     {

@@ -1,5 +1,5 @@
 // Who hears about what: the partner admins of an organisation, the network admins, and the
-// Console pages their e-mails link to.
+// Console and Directory pages their e-mails link to.
 import type { EntityManager } from 'typeorm';
 import { MembershipEntity, UserAccountEntity } from '../entities';
 
@@ -16,4 +16,14 @@ export function networkAdmins(manager: EntityManager): Promise<UserAccountEntity
 export const consoleLinks = {
   application: (publicUrl: string) => `${publicUrl}/console/application`,
   review: (publicUrl: string, organisationId: string) => `${publicUrl}/console/admin/applications/${encodeURIComponent(organisationId)}`,
+  booking: (publicUrl: string, bookingId: string) => `${publicUrl}/console/bookings/${encodeURIComponent(bookingId)}`,
+};
+
+/** Directory pages the owners' e-mails open. */
+export const directoryLinks = {
+  /** The search for a service at a place (the Directory reads `service`, `lat` and `lng`). */
+  search: (publicUrl: string, q: { service: string; lat: number; lng: number }) =>
+    `${publicUrl}/search?${new URLSearchParams({ service: q.service, lat: String(q.lat), lng: String(q.lng) }).toString()}`,
+  /** The owner's booking page; the payment page returns here (`?paid=1`, `?cancelled=1`). */
+  booking: (publicUrl: string, bookingId: string) => `${publicUrl}/bookings/${encodeURIComponent(bookingId)}`,
 };

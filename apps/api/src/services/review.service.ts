@@ -16,6 +16,7 @@ import { createError, NotFound } from '../lib/errors';
 import { enqueueMail } from '../mail/outbox';
 import { listAudit } from './admin.service';
 import { audit } from './audit.service';
+import { notifyCoverageAlerts } from './coverage.service';
 import { buildApplication, lockOrganisation } from './onboarding.service';
 import { consoleLinks, partnerAdminsOf } from './recipients';
 
@@ -165,4 +166,6 @@ export async function decide(ctx: ServiceContext, organisationId: string, input:
         break;
     }
   }
+  // listed again (or for the first time): owners waiting in its area for what it can do hear now
+  if (transition.to === 'approved') await notifyCoverageAlerts(ctx.manager, organisationId, { publicUrl: o.publicUrl });
 }

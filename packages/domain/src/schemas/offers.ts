@@ -121,6 +121,9 @@ export type PartPatch = z.output<typeof PartPatchSchema>;
 export const PartSchema = PartInputSchema.extend({ id: IdSchema, organisationId: IdSchema, createdAt: z.string(), updatedAt: z.string() });
 export type Part = z.infer<typeof PartSchema>;
 
+/** A part with this many or fewer in stock is running low (the parts list tags it, the dashboard lists it). */
+export const LOW_STOCK_THRESHOLD = 3;
+
 export const TravelPolicyInputSchema = z
   .object({
     freeWithinKm: z.number({ error: 'Enter the free distance in km' }).int('Enter whole kilometres').min(0, 'Use 0 to 500 km').max(500, 'Use 0 to 500 km'),

@@ -4,5 +4,7 @@ import { Accounts1764630000000 } from './1764630000000-accounts';
 import { Vehicles1764640000000 } from './1764640000000-vehicles';
 import { Onboarding1764650000000 } from './1764650000000-onboarding';
 import { Offers1764660000000 } from './1764660000000-offers';
+import { Search1764670000000 } from './1764670000000-search';
+import { Bookings1764680000000 } from './1764680000000-bookings';
 
-export const migrations = [Catalogue1764620000000, Accounts1764630000000, Vehicles1764640000000, Onboarding1764650000000, Offers1764660000000];
+export const migrations = [Catalogue1764620000000, Accounts1764630000000, Vehicles1764640000000, Onboarding1764650000000, Offers1764660000000, Search1764670000000, Bookings1764680000000];

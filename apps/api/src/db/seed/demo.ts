@@ -19,6 +19,7 @@ import type { Storage } from '../../storage';
 import { DEMO_NETWORK_ADMINS, DEMO_ORGANISATIONS, DEMO_OWNERS, DEMO_PASSWORD, DEMO_VEHICLES, type DemoOrganisation, type DemoPerson } from './demo-data';
 import { minimalPdf } from './minimal-pdf';
 import { seedDemoOffers } from './demo-offers';
+import { seedDemoBookings } from './demo-bookings';
 
 export interface DemoSeedReport {
   usersAdded: number;
@@ -140,6 +141,7 @@ export async function seedDemo(manager: EntityManager, bcryptCost: number, o: { 
     if (added.profile) report.profilesAdded++;
     report.documentsAdded += added.documents;
   }
-  await seedDemoOffers(manager);
+  await seedDemoOffers(manager, now);
+  await seedDemoBookings(manager, now);
   return report;
 }

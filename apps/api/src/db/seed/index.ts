@@ -3,18 +3,22 @@
 import type { EntityManager } from 'typeorm';
 import type { Storage } from '../../storage';
 import { CapabilityEntity, ServiceTypeEntity } from '../../entities';
+import { seedRules } from '../../services/eligibility-rules.service';
 import { CAPABILITIES, SERVICE_TYPES } from './catalogue-data';
+import { ELIGIBILITY_RULES } from './eligibility-rules';
 import { seedDemo, type DemoSeedReport } from './demo';
 
 export interface SeedReport {
   capabilitiesAdded: number;
   serviceTypesAdded: number;
+  /** Starting vehicle rules whose codes were new (admins' edits and deletions are kept). */
+  eligibilityRulesAdded: number;
 }
 
 export async function seedCatalogue(manager: EntityManager): Promise<SeedReport> {
   const capabilities = manager.getRepository(CapabilityEntity);
   const serviceTypes = manager.getRepository(ServiceTypeEntity);
-  const report: SeedReport = { capabilitiesAdded: 0, serviceTypesAdded: 0 };
+  const report: SeedReport = { capabilitiesAdded: 0, serviceTypesAdded: 0, eligibilityRulesAdded: 0 };
 
   const existing = new Map((await capabilities.find()).map((c) => [c.code, c]));
   for (const seed of CAPABILITIES) {
@@ -35,6 +39,7 @@ export async function seedCatalogue(manager: EntityManager): Promise<SeedReport>
     await serviceTypes.save(serviceTypes.create({ ...fields, sortOrder: index * 10, retired: false, requiredCapabilities: required }));
     report.serviceTypesAdded++;
   }
+  report.eligibilityRulesAdded = await seedRules(manager, ELIGIBILITY_RULES);
   return report;
 }
 

@@ -137,6 +137,122 @@ const de: MailMessages = {
       paragraphs: ['{organisationName} wurde gesperrt und erscheint nicht mehr im Verzeichnis.', 'Grund: {reason}'],
       action: 'Bewerbung öffnen',
     },
+    'coverage-alert-confirmed': {
+      subject: 'Wir sagen Ihnen Bescheid, sobald jemand Ihre Gegend abdeckt',
+      heading: 'Wir melden uns',
+      greeting: 'Hallo,',
+      paragraphs: [
+        'Dort, wo Sie gesucht haben, bietet noch kein Partner im Netzwerk {serviceName} an. Sobald das jemand tut, schicken wir Ihnen eine E-Mail mit einem Link zu ihm.',
+        'Ihre E-Mail-Adresse behalten wir nur für diese Nachricht: Sie wird gelöscht, sobald wir Ihnen geschrieben haben, oder nach {days}, wenn bis dahin niemand Ihre Gegend abdeckt.',
+      ],
+      afterAction: ['Wenn Sie das nicht angefordert haben, können Sie diese E-Mail ignorieren.'],
+    },
+    'coverage-alert-match': {
+      subject: '{serviceName} gibt es jetzt in Ihrer Gegend',
+      heading: 'Ein Partner deckt jetzt Ihre Gegend ab',
+      greeting: 'Hallo,',
+      paragraphs: [
+        'Sie wollten wissen, wann ein Partner dort, wo Sie gesucht haben, {serviceName} anbietet. {organisationName} arbeitet jetzt in Ihrer Gegend.',
+        'Preise und nächste freie Termine finden Sie im Verzeichnis.',
+      ],
+      action: 'Anbieter ansehen',
+      afterAction: ['Ihre E-Mail-Adresse haben wir aus dieser Benachrichtigung gelöscht; wir schreiben Ihnen dazu nicht noch einmal.'],
+    },
+    'booking-requested': {
+      subject: 'Buchung {reference} eingegangen: {serviceName} am {start}',
+      heading: 'Ihre Buchung ist eingegangen',
+      greeting: 'Hallo {name},',
+      paragraphs: [
+        'Danke. Ihre Buchung {reference} für {serviceName} bei {partnerName} am {start} liegt jetzt beim Partner, der sie in Kürze bestätigt.',
+        'Wir haben {amount} auf Ihrer Karte reserviert. Abgebucht wird erst, wenn der Auftrag erledigt ist; kann der Partner die Buchung nicht annehmen, wird die Reservierung freigegeben.',
+      ],
+      action: 'Buchung ansehen',
+    },
+    'booking-confirmed': {
+      subject: 'Bestätigt: {serviceName} am {start} ({reference})',
+      heading: 'Ihre Buchung ist bestätigt',
+      greeting: 'Hallo {name},',
+      paragraphs: [
+        '{partnerName} hat Ihre Buchung {reference} bestätigt: {serviceName} am {start}.',
+        'Ort: {place}',
+        'Die Kalendereinladung hängt an, damit Sie den Termin in Ihren Kalender übernehmen können.',
+      ],
+      action: 'Buchung ansehen',
+    },
+    'booking-reminder': {
+      subject: 'Erinnerung: {serviceName} am {start}',
+      heading: 'Ihr Termin steht bevor',
+      greeting: 'Hallo {name},',
+      paragraphs: [
+        'Eine Erinnerung an Ihre Buchung {reference} bei {partnerName}: {serviceName} am {start}.',
+        'Ort: {place}',
+        'Bitte halten Sie das Fahrzeug und die Schlüssel bereit. Möchten Sie den Termin ändern, öffnen Sie Ihre Buchung.',
+      ],
+      action: 'Buchung ansehen',
+    },
+    'booking-rescheduled': {
+      subject: 'Ihre Buchung {reference} ist auf {start} verschoben',
+      heading: 'Ihre Buchung hat einen neuen Termin',
+      greeting: 'Hallo {name},',
+      paragraphs: ['Ihre Buchung {reference} für {serviceName} bei {partnerName} beginnt jetzt am {start} statt am {previousStart}.'],
+      action: 'Buchung ansehen',
+    },
+    'booking-cancelled': {
+      subject: 'Buchung {reference} storniert',
+      heading: 'Ihre Buchung ist storniert',
+      greeting: 'Hallo {name},',
+      paragraphs: [
+        'Sie haben Ihre Buchung {reference} für {serviceName} am {start} storniert.',
+        'Stornogebühr nach den Bedingungen des Partners: {fee}. Von der Reservierung auf Ihrer Karte freigegeben: {refund}.',
+      ],
+      action: 'Buchung ansehen',
+    },
+    'booking-declined': {
+      subject: 'Buchung {reference} konnte nicht angenommen werden',
+      heading: 'Der Partner kann Ihre Buchung nicht annehmen',
+      greeting: 'Hallo {name},',
+      paragraphs: [
+        '{partnerName} kann {serviceName} am {start} nicht übernehmen (Buchung {reference}).',
+        'Begründung: {reason}',
+        'Die Reservierung von {amount} auf Ihrer Karte ist freigegeben; abgebucht wurde nichts. Buchen Sie gern einen anderen Termin oder einen anderen Partner.',
+      ],
+      action: 'Buchung ansehen',
+    },
+    'booking-expired': {
+      subject: 'Buchung {reference} wurde nicht rechtzeitig bestätigt',
+      heading: 'Ihre Buchung wurde nicht bestätigt',
+      greeting: 'Hallo {name},',
+      paragraphs: [
+        '{partnerName} hat Ihre Buchung {reference} für {serviceName} am {start} nicht vor dem Termin bestätigt.',
+        'Die Reservierung von {amount} auf Ihrer Karte ist freigegeben; abgebucht wurde nichts.',
+      ],
+      action: 'Anderen Termin finden',
+    },
+    'partner-booking-new': {
+      subject: 'Neue Buchung {reference}: {serviceName} am {start}',
+      heading: 'Eine neue Buchung',
+      greeting: 'Hallo {name},',
+      paragraphs: [
+        '{customerName} hat {serviceName} am {start} gebucht (Buchung {reference}).',
+        'Ort: {place}',
+        'Die Zahlung ist auf der Karte der Kundin oder des Kunden reserviert. Bitte bestätigen oder lehnen Sie die Buchung in der Console ab, falls sie auf Sie wartet.',
+      ],
+      action: 'Buchung öffnen',
+    },
+    'partner-booking-cancelled': {
+      subject: 'Buchung {reference} am {start} wurde storniert',
+      heading: 'Eine Buchung wurde storniert',
+      greeting: 'Hallo {name},',
+      paragraphs: ['{customerName} hat die Buchung {reference} für {serviceName} am {start} storniert. Der Termin ist wieder frei.', 'Nach Ihren Bedingungen berechnete Stornogebühr: {fee}.'],
+      action: 'Buchung öffnen',
+    },
+    'partner-booking-rescheduled': {
+      subject: 'Buchung {reference} auf {start} verschoben',
+      heading: 'Eine Buchung hat einen neuen Termin',
+      greeting: 'Hallo {name},',
+      paragraphs: ['Die Buchung {reference} für {serviceName} ({customerName}) beginnt jetzt am {start} statt am {previousStart}.'],
+      action: 'Buchung öffnen',
+    },
   },
 };
 

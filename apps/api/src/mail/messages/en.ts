@@ -35,6 +35,18 @@ export interface MailMessages {
     'organisation-reinstated': TemplateMessages;
     'insurance-expiring': TemplateMessages;
     'partner-suspended': TemplateMessages;
+    'coverage-alert-confirmed': TemplateMessages;
+    'coverage-alert-match': TemplateMessages;
+    'booking-requested': TemplateMessages;
+    'booking-confirmed': TemplateMessages;
+    'booking-reminder': TemplateMessages;
+    'booking-rescheduled': TemplateMessages;
+    'booking-cancelled': TemplateMessages;
+    'booking-declined': TemplateMessages;
+    'booking-expired': TemplateMessages;
+    'partner-booking-new': TemplateMessages;
+    'partner-booking-cancelled': TemplateMessages;
+    'partner-booking-rescheduled': TemplateMessages;
   };
 }
 
@@ -173,6 +185,122 @@ const en: MailMessages = {
       greeting: 'Hello,',
       paragraphs: ['{organisationName} was suspended and no longer appears in the Directory.', 'Reason: {reason}'],
       action: 'Open the application',
+    },
+    'coverage-alert-confirmed': {
+      subject: 'We will tell you when someone covers your area',
+      heading: 'We will let you know',
+      greeting: 'Hello,',
+      paragraphs: [
+        'No partner in the network does {serviceName} where you searched yet. As soon as one does, we will send you one e-mail with a link to them.',
+        'We keep your e-mail address only for that message: it is deleted once we have written to you, or after {days} if nobody covers your area by then.',
+      ],
+      afterAction: ['If you did not ask for this, you can ignore this e-mail.'],
+    },
+    'coverage-alert-match': {
+      subject: 'Someone now does {serviceName} in your area',
+      heading: 'A partner now covers your area',
+      greeting: 'Hello,',
+      paragraphs: [
+        'You asked us to tell you when a partner does {serviceName} where you searched. {organisationName} now works in your area.',
+        'See their prices and next free times in the Directory.',
+      ],
+      action: 'See who can do it',
+      afterAction: ['We have now deleted your e-mail address from this alert; we will not write again about it.'],
+    },
+    'booking-requested': {
+      subject: 'Booking {reference} received: {serviceName} on {start}',
+      heading: 'We have your booking',
+      greeting: 'Hello {name},',
+      paragraphs: [
+        'Thank you. Your booking {reference} for {serviceName} with {partnerName} on {start} is with the partner now, and they will confirm it shortly.',
+        'We have reserved {amount} on your card. Nothing is taken until the job is done, and the reservation is released if the partner cannot take the booking.',
+      ],
+      action: 'See your booking',
+    },
+    'booking-confirmed': {
+      subject: 'Confirmed: {serviceName} on {start} ({reference})',
+      heading: 'Your booking is confirmed',
+      greeting: 'Hello {name},',
+      paragraphs: [
+        '{partnerName} has confirmed your booking {reference}: {serviceName} on {start}.',
+        'Where: {place}',
+        'The calendar invitation is attached, so you can add the appointment to your calendar.',
+      ],
+      action: 'See your booking',
+    },
+    'booking-reminder': {
+      subject: 'Reminder: {serviceName} on {start}',
+      heading: 'Your appointment is coming up',
+      greeting: 'Hello {name},',
+      paragraphs: [
+        'A reminder of your booking {reference} with {partnerName}: {serviceName} on {start}.',
+        'Where: {place}',
+        'Please have the vehicle and its keys ready. If you need to change the appointment, open your booking.',
+      ],
+      action: 'See your booking',
+    },
+    'booking-rescheduled': {
+      subject: 'Your booking {reference} has moved to {start}',
+      heading: 'Your booking has a new time',
+      greeting: 'Hello {name},',
+      paragraphs: ['Your booking {reference} for {serviceName} with {partnerName} now starts on {start} instead of {previousStart}.'],
+      action: 'See your booking',
+    },
+    'booking-cancelled': {
+      subject: 'Booking {reference} cancelled',
+      heading: 'Your booking is cancelled',
+      greeting: 'Hello {name},',
+      paragraphs: [
+        'You have cancelled your booking {reference} for {serviceName} on {start}.',
+        'Cancellation fee under the partner\'s policy: {fee}. Released from the reservation on your card: {refund}.',
+      ],
+      action: 'See your booking',
+    },
+    'booking-declined': {
+      subject: 'Booking {reference} could not be taken',
+      heading: 'The partner cannot take your booking',
+      greeting: 'Hello {name},',
+      paragraphs: [
+        '{partnerName} cannot do {serviceName} on {start} (booking {reference}).',
+        'Their reason: {reason}',
+        'The reservation of {amount} on your card has been released; nothing was charged. You are welcome to book another time or another partner.',
+      ],
+      action: 'See your booking',
+    },
+    'booking-expired': {
+      subject: 'Booking {reference} was not confirmed in time',
+      heading: 'Your booking was not confirmed',
+      greeting: 'Hello {name},',
+      paragraphs: [
+        '{partnerName} did not confirm your booking {reference} for {serviceName} on {start} before it was due to start.',
+        'The reservation of {amount} on your card has been released; nothing was charged.',
+      ],
+      action: 'Find another time',
+    },
+    'partner-booking-new': {
+      subject: 'New booking {reference}: {serviceName} on {start}',
+      heading: 'A new booking',
+      greeting: 'Hello {name},',
+      paragraphs: [
+        '{customerName} has booked {serviceName} on {start} (booking {reference}).',
+        'Where: {place}',
+        'The payment is reserved on the customer\'s card. Please confirm or decline the booking in the Console if it is waiting for you.',
+      ],
+      action: 'Open the booking',
+    },
+    'partner-booking-cancelled': {
+      subject: 'Booking {reference} on {start} was cancelled',
+      heading: 'A booking was cancelled',
+      greeting: 'Hello {name},',
+      paragraphs: ['{customerName} has cancelled booking {reference} for {serviceName} on {start}. The time is free again.', 'Cancellation fee charged under your policy: {fee}.'],
+      action: 'Open the booking',
+    },
+    'partner-booking-rescheduled': {
+      subject: 'Booking {reference} moved to {start}',
+      heading: 'A booking has a new time',
+      greeting: 'Hello {name},',
+      paragraphs: ['Booking {reference} for {serviceName} ({customerName}) now starts on {start} instead of {previousStart}.'],
+      action: 'Open the booking',
     },
   },
 };
