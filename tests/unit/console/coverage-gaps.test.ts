@@ -30,7 +30,7 @@ describe('Coverage gaps', () => {
     expect(table).toContain('Conversion (automatic)');
     expect(table).toContain('48.31°, 14.29°');
     const link = wrapper.find('a[href*="/search?"]').attributes('href')!;
-    expect(new URL(link, 'http://x').searchParams.get('serviceType')).toBe('parking-conversion-auto');
+    expect(new URL(link, 'http://x').searchParams.get('service')).toBe('parking-conversion-auto');
   });
 
   it('asks again when the period changes, and says so when nothing is unanswered', async () => {
