@@ -1,5 +1,5 @@
 // Directory home: the service catalogue from the API in its loading, data, empty and error states.
-import { beforeEach, describe, expect, it, vi } from 'vitest';
+import { beforeAll, beforeEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises, mount } from '@vue/test-utils';
 import { createPinia, setActivePinia } from 'pinia';
 import { createMemoryHistory } from 'vue-router';
@@ -62,6 +62,9 @@ async function mountHome() {
 }
 
 describe('Directory home', () => {
+  // the search view is lazy and large: compiled once up front, a navigation to it settles in time
+  beforeAll(() => import('@/views/search/index.vue'), 30_000);
+
   beforeEach(() => {
     setActivePinia(createPinia());
     vi.mocked(listServiceTypes).mockReset();

@@ -1,3 +1,4 @@
+// The map search; the whole search lives in the query so it can be shared and revisited.
 import type { RouteRecordRaw } from 'vue-router';
 
 export const searchRoutes: RouteRecordRaw[] = [
