@@ -20,6 +20,8 @@ export interface CapturedMail {
   headers: Record<string, string>;
   /** http(s) links found in the HTML and text parts, in order, without duplicates. */
   links: string[];
+  /** Attached files; text types (e.g. text/calendar) with their content decoded as UTF-8. */
+  attachments?: { filename: string; contentType: string; size: number; text: string | null }[];
 }
 
 export interface MailCaptureOptions {
@@ -103,6 +105,12 @@ async function parse(raw: Buffer, envelope: { from: string; to: string[] }): Pro
     html,
     headers,
     links: extractLinks(html, text),
+    attachments: mail.attachments.map((a) => ({
+      filename: a.filename ?? '',
+      contentType: a.contentType,
+      size: a.size,
+      text: a.contentType.startsWith('text/') ? a.content.toString('utf8') : null,
+    })),
   };
 }
 
