@@ -40,7 +40,7 @@ function searchPaths(count: number, serviceTypes: string[], seed: number): strin
 }
 
 async function startServer(env: NodeJS.ProcessEnv, port: number): Promise<ChildProcess> {
-  const child = spawn(process.execPath, ['--import', 'tsx', path.join(root, 'tests/bench/search-server.ts')], { cwd: root, env: { ...env, PORT: String(port) }, stdio: ['ignore', 'ignore', 'inherit'] });
+  const child = spawn(process.execPath, [...(process.env.BENCH_CPU_PROF ? ['--cpu-prof', '--cpu-prof-dir', path.join(root, 'var/bench/prof')] : []), '--import', 'tsx', path.join(root, 'tests/bench/search-server.ts')], { cwd: root, env: { ...env, PORT: String(port) }, stdio: ['ignore', 'ignore', 'inherit'] });
   const status = await waitForHttp(`http://127.0.0.1:${port}/api/health`, 60_000);
   if (status !== 200) {
     child.kill('SIGTERM');
