@@ -227,6 +227,10 @@ describe('the owner\'s changes', () => {
     const closed = await request(t.app).post(`/api/bookings/${late.booking.id}/reschedule`).set(bearer(late.owner)).send({ start: late.start });
     expectProblem(closed, 409, 'RESCHEDULE_CLOSED');
     expect(closed.body.detail).toContain('48 hours');
+    // a start without a UTC offset is a field error, and the booking keeps its time
+    const malformed = await request(t.app).post(`/api/bookings/${late.booking.id}/reschedule`).set(bearer(late.owner)).send({ start: '2027-01-12 09:00' }).expect(400);
+    expect((malformed.body.errors as { path: string }[]).map((e) => e.path)).toEqual(['start']);
+    expect((await request(t.app).get(`/api/bookings/${late.booking.id}`).set(bearer(late.owner)).expect(200)).body.data.start).toBe(late.booking.start);
 
     const early = await paid({ fromDays: 4, accept: true });
     const target = (await slotStarts(t.app, P.orgId, { from: new Date(Date.now() + 5 * DAY_MS).toISOString(), days: 2 }))[0]!;

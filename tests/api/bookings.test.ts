@@ -256,6 +256,10 @@ describe('lists, details and the CSV export', () => {
     const detail = (await request(t.app).get(`/api/orgs/${P.orgId}/bookings/${mine.id}`).set(bearer(P.technician)).expect(200)).body.data;
     expect(detail.partnerQuote).toMatchObject({ commissionBp: 1200, commissionMinor: 540 });
     expect(detail.checkoutUrl).toBeNull();
+    // malformed filters are field errors, for the list and the CSV alike
+    const bad = { status: 'maybe', from: 'yesterday', technicianId: 'nobody' };
+    expect(paths(await request(t.app).get(`/api/orgs/${P.orgId}/bookings`).query(bad).set(bearer(P.admin)).expect(400))).toEqual(['query.from', 'query.status', 'query.technicianId']);
+    expect(paths(await request(t.app).get(`/api/orgs/${P.orgId}/bookings.csv`).query(bad).set(bearer(P.admin)).expect(400))).toEqual(['query.from', 'query.status', 'query.technicianId']);
   });
 
   it('exports CSV with a header row, one row per booking and RFC 4180 quoting', async () => {

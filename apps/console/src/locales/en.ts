@@ -518,7 +518,7 @@ const en = {
     off: 'Switched off',
     allServices: 'All services',
     or: ' or ',
-    builtBefore: 'built before {year}',
+    builtBefore: 'Built before {year}',
     extraMinutes: '+{minutes} min',
     suggests: 'Suggests: {services}',
     columns: { rule: 'Rule', services: 'Services', when: 'When the vehicle has', effect: 'Then', actions: 'Actions' },
