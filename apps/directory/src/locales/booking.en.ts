@@ -55,11 +55,9 @@ const bookingEn = {
       garageEmpty: 'Your garage is empty, so enter the details below.',
       garageLink: 'Save vans in your garage for next time',
       changeDetails: 'Change the details for this booking',
-      climate: '{value} climate control',
       model: 'Model',
       year: 'Year of manufacture',
       yearPlaceholder: 'e.g. {max}',
-      notSure: 'Not sure',
       why: 'The technician prepares parts and time for this vehicle. Leave out what you do not know; they check it on site.',
     },
     place: {

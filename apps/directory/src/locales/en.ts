@@ -128,11 +128,9 @@ const en = {
       garageEmpty: 'Your garage is empty.',
       garageLink: 'Add your van to your garage',
       changeDetails: 'Change the details',
-      climateSummary: '{value} climate control',
       model: 'Model',
       year: 'Year of manufacture',
       yearPlaceholder: 'e.g. {max}',
-      notSure: 'Not sure',
       fieldNames: {
         model: 'model',
         fuel: 'fuel',

@@ -21,6 +21,8 @@ const garageEn = {
     batteryValue: '{capacity} Ah, {type}',
     volts: '{value} V',
     modelYear: '{model}, {year}',
+    notSure: 'Not sure',
+    climateSummary: '{value} climate control',
     plan: 'Plan pre-heating',
     planFor: 'Plan pre-heating for {name}',
     edit: 'Edit',
