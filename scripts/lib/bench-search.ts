@@ -71,6 +71,8 @@ interface LoadTotals {
   latencyP99: number[];
   /** CPU time of the API process and of MariaDB while the requests ran, ms (Linux only, else 0). */
   cpuMs: number;
+  /** The API process's part of cpuMs. */
+  apiCpuMs: number;
 }
 
 /** CPU time (user + system) a process has used so far, ms; 0 where /proc is not there. */
@@ -82,15 +84,18 @@ function cpuMsOf(pid: number | undefined): number {
 }
 
 async function loadInTurns(url: string, runs: Record<'search' | 'health', string[]>, pids: (number | undefined)[]): Promise<Record<'search' | 'health', LoadTotals>> {
-  const empty = (): LoadTotals => ({ requests: 0, seconds: 0, non2xx: 0, errors: 0, latencyP50: [], latencyP99: [], cpuMs: 0 });
+  const empty = (): LoadTotals => ({ requests: 0, seconds: 0, non2xx: 0, errors: 0, latencyP50: [], latencyP99: [], cpuMs: 0, apiCpuMs: 0 });
   const totals = { search: empty(), health: empty() };
   const cpu = (): number => pids.reduce<number>((sum, pid) => sum + cpuMsOf(pid), 0);
   for (let slice = 0; slice < SLICES; slice++) {
-    for (const name of ['search', 'health'] as const) {
+    // BENCH_ONLY=search (or health) loads one of the two, for a CPU profile of it alone
+    for (const name of (['search', 'health'] as const).filter((n) => !process.env.BENCH_ONLY || n === process.env.BENCH_ONLY)) {
       const cpu0 = cpu();
+      const api0 = cpuMsOf(pids[0]);
       const r = await cannon(url, runs[name], DURATION_S / SLICES);
       const t = totals[name];
       t.cpuMs += cpu() - cpu0;
+      t.apiCpuMs += cpuMsOf(pids[0]) - api0;
       t.requests += r.requests.total;
       t.seconds += r.duration;
       t.non2xx += r.non2xx;
@@ -192,7 +197,9 @@ export async function benchSearch(): Promise<void> {
         ratio: round(rps(load.search) / rps(load.health), 3),
         // the machine's other load moves requests per second; the CPU each request costs moves less
         searchCpuMsPerRequest: round(cpuPerRequest(load.search), 2),
+        searchApiCpuMsPerRequest: round(load.search.requests ? load.search.apiCpuMs / load.search.requests : 0, 2),
         healthCpuMsPerRequest: round(cpuPerRequest(load.health), 2),
+        healthApiCpuMsPerRequest: round(load.health.requests ? load.health.apiCpuMs / load.health.requests : 0, 2),
         cpuRatio: cpuPerRequest(load.search) ? round(cpuPerRequest(load.health) / cpuPerRequest(load.search), 3) : null,
         targetRatio: 0.4,
       },
@@ -206,7 +213,7 @@ export async function benchSearch(): Promise<void> {
   ${h.averageMatches} matching partners per search on average; ${(h.emptyShare * 100).toFixed(1)} % of searches found nobody
   autocannon ${l.durationS} s × ${l.connections} connections each, in ${l.turns} turns: search ${l.searchRps} req/s (p50 ${l.searchLatencyP50Ms} ms, p99 ${l.searchLatencyP99Ms} ms, non-2xx ${l.searchNon2xx}), health ${l.healthRps} req/s
   search ÷ health = ${(l.ratio * 100).toFixed(1)} % (target ≥ ${l.targetRatio * 100} %)
-  CPU per request (API process + MariaDB): search ${l.searchCpuMsPerRequest} ms, health ${l.healthCpuMsPerRequest} ms${l.cpuRatio === null ? '' : ` (health ÷ search ${(l.cpuRatio * 100).toFixed(1)} %)`}
+  CPU per request (API process + MariaDB): search ${l.searchCpuMsPerRequest} ms (API ${l.searchApiCpuMsPerRequest} ms), health ${l.healthCpuMsPerRequest} ms (API ${l.healthApiCpuMsPerRequest} ms)${l.cpuRatio === null ? '' : ` (health ÷ search ${(l.cpuRatio * 100).toFixed(1)} %)`}
   on ${machine}`);
     mkdirSync(path.join(varDir, 'bench'), { recursive: true });
     writeFileSync(path.join(varDir, 'bench', 'search.json'), JSON.stringify(report, null, 2) + '\n');

@@ -8,11 +8,67 @@ const SAMPLE_MS = 12 * 3_600_000;
 /** The time-zone database states changes in whole seconds (and luxon reads offsets per second). */
 const SECOND_MS = 1000;
 
+/** Offsets in force over one UTC calendar year of one zone: starts[0] is the year's first instant. */
+interface YearTable {
+  starts: number[];
+  offsets: number[];
+}
+
+/**
+ * The offset changes of a zone are the same for every search, so they are found once per zone and
+ * UTC year (about 730 questions to luxon and a bisection per change) and kept: a year table is a
+ * few numbers, and a zone has a handful of years in use. The oldest go first beyond the limit.
+ */
+const yearTables = new Map<string, YearTable>();
+const YEAR_TABLES_MAX = 2000;
+
+const luxonOffset = (zone: IANAZone, instant: number) => Math.round(zone.offset(instant) * MINUTE_MS);
+
+/** Samples [from, to] every SAMPLE_MS and locates each change to the second. */
+function offsetTable(zone: IANAZone, from: number, to: number): YearTable {
+  const starts = [from];
+  let offset = luxonOffset(zone, from);
+  const offsets = [offset];
+  let t = from;
+  while (t < to) {
+    const next = Math.min(t + SAMPLE_MS, to);
+    const nextOffset = luxonOffset(zone, next);
+    if (nextOffset === offset) {
+      t = next;
+      continue;
+    }
+    // the offset changed in (t, next]: find the first second of the new offset
+    let lo = t;
+    let hi = next;
+    while (hi - lo > SECOND_MS) {
+      const mid = Math.max(lo + SECOND_MS, Math.floor((lo + hi) / 2 / SECOND_MS) * SECOND_MS);
+      if (luxonOffset(zone, mid) === offset) lo = mid;
+      else hi = mid;
+    }
+    t = hi;
+    offset = luxonOffset(zone, hi);
+    starts.push(hi);
+    offsets.push(offset);
+  }
+  return { starts, offsets };
+}
+
+function yearTable(zone: IANAZone, year: number): YearTable {
+  const key = `${zone.name}|${year}`;
+  let table = yearTables.get(key);
+  if (!table) {
+    table = offsetTable(zone, Date.UTC(year, 0, 1), Date.UTC(year + 1, 0, 1));
+    if (yearTables.size >= YEAR_TABLES_MAX) yearTables.delete(yearTables.keys().next().value!);
+    yearTables.set(key, table);
+  }
+  return table;
+}
+
 /**
  * Local times are handled as "wall-clock milliseconds": the local date and time read as if they
  * were UTC (Date.UTC(y, m - 1, d, h, min)). Asking luxon for an offset costs microseconds, so
- * the offsets in force over [spanStart, spanEnd] are found once (each change located to the
- * second) and then looked up; outside the span luxon is asked directly.
+ * the offsets in force over [spanStart, spanEnd] are taken from the zone's year tables (each
+ * change located to the second) and then looked up; outside the span luxon is asked directly.
  */
 export class ZoneClock {
   private readonly zone: IANAZone;
@@ -28,29 +84,22 @@ export class ZoneClock {
     const zone = IANAZone.create(name);
     if (!zone.isValid) throw new RangeError(`unknown time zone "${name}"`);
     this.zone = zone;
-    let t = spanStart;
-    let offset = this.luxonOffset(t);
-    this.starts.push(t);
-    this.offsets.push(offset);
-    while (t < spanEnd) {
-      const next = Math.min(t + SAMPLE_MS, spanEnd);
-      const nextOffset = this.luxonOffset(next);
-      if (nextOffset === offset) {
-        t = next;
-        continue;
-      }
-      // the offset changed in (t, next]: find the first second of the new offset
-      let lo = t;
-      let hi = next;
-      while (hi - lo > SECOND_MS) {
-        const mid = Math.max(lo + SECOND_MS, Math.floor((lo + hi) / 2 / SECOND_MS) * SECOND_MS);
-        if (this.luxonOffset(mid) === offset) lo = mid;
-        else hi = mid;
-      }
-      t = hi;
-      offset = this.luxonOffset(hi);
-      this.starts.push(hi);
-      this.offsets.push(offset);
+    const firstYear = new Date(spanStart).getUTCFullYear();
+    const lastYear = new Date(spanEnd).getUTCFullYear();
+    for (let year = firstYear; year <= lastYear; year++) {
+      const table = yearTable(zone, year);
+      table.starts.forEach((start, i) => {
+        const offset = table.offsets[i]!;
+        if (start > spanEnd) return;
+        if (start <= spanStart) {
+          // the offset in force at the span's start is the last one that began at or before it
+          this.starts[0] = spanStart;
+          this.offsets[0] = offset;
+        } else if (this.offsets.at(-1) !== offset) {
+          this.starts.push(start);
+          this.offsets.push(offset);
+        }
+      });
     }
   }
 
@@ -95,6 +144,6 @@ export class ZoneClock {
   }
 
   private luxonOffset(instant: number): number {
-    return Math.round(this.zone.offset(instant) * MINUTE_MS);
+    return luxonOffset(this.zone, instant);
   }
 }
