@@ -120,26 +120,26 @@ interface Context {
 }
 
 /**
- * The searched local days of a zone. luxon gives the local date of `from` in the zone; the dates
- * after it come from luxon's calendar arithmetic on dates alone (a zone-free calendar, so no
- * offsets are looked up), and each day's instants from the zone's clock — never by adding
- * 24 hours to an instant.
+ * The searched local days of a zone. The zone's clock (its offsets from the shared year tables,
+ * see ZoneClock) gives the local date of `from`; the dates after it are counted on wall-clock
+ * midnights (a zone-free calendar, so no offsets are looked up), and each day's instants come
+ * from the clock — never by adding 24 hours to an instant.
  */
 function calendarFor(zone: string, context: Context): ZoneCalendar {
   const cached = context.calendars.get(zone);
   if (cached) return cached;
-  const start = DateTime.fromMillis(context.fromMs, { zone });
-  if (!start.isValid) throw new RangeError(`unknown time zone "${zone}"`);
-  // (fromObject would read the clock to fill in missing fields; fromMillis does not)
-  const firstDate = DateTime.fromMillis(Date.UTC(start.year, start.month - 1, start.day), { zone: 'utc' });
+  // local midnight of `from` is within a day of it; three more days either side, because
+  // wall-clock conversions look a day beyond the time they convert
+  const clock = new ZoneClock(zone, context.fromMs - 4 * DAY_MS, context.fromMs + (context.days + 4) * DAY_MS);
+  const firstMidnight = Math.floor(clock.toWallClock(context.fromMs) / DAY_MS) * DAY_MS;
   const days: LocalDay[] = [];
   for (let i = 0; i <= context.days; i++) {
-    const day = firstDate.plus({ days: i });
-    days.push({ date: day.toISODate()!, weekday: WEEKDAYS[day.weekday - 1]!, wallMidnight: day.toMillis() });
+    const wallMidnight = firstMidnight + i * DAY_MS;
+    const date = new Date(wallMidnight);
+    // getUTCDay counts from Sunday; WEEKDAYS from Monday
+    days.push({ date: date.toISOString().slice(0, 10), weekday: WEEKDAYS[(date.getUTCDay() + 6) % 7]!, wallMidnight });
   }
   const after = days[days.length - 1]!;
-  // two days either side: wall-clock conversions look a day beyond the time they convert
-  const clock = new ZoneClock(zone, days[0]!.wallMidnight - 3 * DAY_MS, after.wallMidnight + 3 * DAY_MS);
   const calendar: ZoneCalendar = { clock, days, searchEnd: clock.toInstant(after.wallMidnight), horizonEnds: new Map() };
   context.calendars.set(zone, calendar);
   return calendar;
@@ -158,8 +158,11 @@ function technicianSlots(technician: SlotTechnician, context: Context): { slots:
   // Latest start: before the local day after (today + horizon) and before the end of the search.
   let horizonEnd = calendar.horizonEnds.get(hours.bookingHorizonDays);
   if (horizonEnd === undefined) {
-    const day = DateTime.fromMillis(context.nowMs, { zone: hours.timeZone }).startOf('day').plus({ days: hours.bookingHorizonDays + 1 });
-    horizonEnd = clock.toInstant(Date.UTC(day.year, day.month - 1, day.day));
+    // local midnight of the day after today + horizon, on the wall clock; past the search's
+    // last day it cannot cut anything (the search ends first)
+    const todayWall = Math.floor(clock.toWallClock(context.nowMs) / DAY_MS) * DAY_MS;
+    const horizonWall = todayWall + (hours.bookingHorizonDays + 1) * DAY_MS;
+    horizonEnd = horizonWall > calendar.days[calendar.days.length - 1]!.wallMidnight ? Number.POSITIVE_INFINITY : clock.toInstant(horizonWall);
     calendar.horizonEnds.set(hours.bookingHorizonDays, horizonEnd);
   }
   const earliestStart = Math.max(context.fromMs, context.nowMs + hours.minimumNoticeMinutes * MINUTE_MS);
@@ -172,6 +175,19 @@ function technicianSlots(technician: SlotTechnician, context: Context): { slots:
   const blocked = blockedStarts(technician, dayFirstStarts, context, earliestStart, latestStart);
   const allowed = subtractFromClosed(ranges, blocked);
   return gridSlots(allowed, clock, context);
+}
+
+/** The weekly intervals as minutes of the day, read once per hours object (callers keep theirs for many runs). */
+const weeklyMinutesCache = new WeakMap<WorkingHours, Record<Weekday, ReadonlyArray<readonly [number, number]>>>();
+
+function weeklyMinutes(hours: WorkingHours): Record<Weekday, ReadonlyArray<readonly [number, number]>> {
+  let weekly = weeklyMinutesCache.get(hours);
+  if (!weekly) {
+    weekly = {} as Record<Weekday, ReadonlyArray<readonly [number, number]>>;
+    for (const day of WEEKDAYS) weekly[day] = hours.weekly[day].map((i) => [minutesOfDay(i.start), minutesOfDay(i.end)] as const);
+    weeklyMinutesCache.set(hours, weekly);
+  }
+  return weekly;
 }
 
 /** Working time as instants, exceptions applied, merged; and the first working instant of each day. */
@@ -195,8 +211,7 @@ function workingWindows(hours: WorkingHours, calendar: ZoneCalendar): { windows:
     }
   }
   const away = mergeSpans(timeOff, false);
-  const weekly = {} as Record<Weekday, Array<[number, number]>>;
-  for (const day of WEEKDAYS) weekly[day] = hours.weekly[day].map((i) => [minutesOfDay(i.start), minutesOfDay(i.end)]);
+  const weekly = weeklyMinutes(hours);
 
   const windows: Span[] = [];
   const dayFirstStarts: number[] = [];
