@@ -1,10 +1,9 @@
 // The Directory's search: which approved partners can do a service for this vehicle at this
-// place, at what price and how soon. A fixed number of queries whatever the number of partners:
-// the candidates (with offer, parts total and travel policy) around the place, their
-// technicians' hours and their bookings, after the catalogue and the active rules (from memory,
-// see search-catalogue.ts); and when nobody covers the place, the nearest partners outside and
-// the anonymous gap row.
-import type { EntityManager } from 'typeorm';
+// place, at what price and how soon. The partners, their offers, areas, travel policies and
+// technicians' hours come from the in-memory search index (search-index.ts: one query to learn
+// whether it is up to date), the catalogue and the active rules from memory too
+// (search-catalogue.ts); the candidates' bookings are one query, whatever the number of partners.
+// When nobody covers the place, the anonymous gap row is written.
 import { DateTime } from 'luxon';
 import {
   bestMatchScore,
@@ -12,9 +11,11 @@ import {
   compareResults,
   evaluateEligibility,
   greatCircleDistanceM,
+  isInBoundingBox,
+  MEAN_EARTH_RADIUS_M,
   MAX_SEARCH_RADIUS_KM,
   SEARCH_SLOT_DAYS,
-  travelFee,
+  travelFeeForDistance,
   vehicleClassOf,
   type CautionCode,
   type Currency,
@@ -27,17 +28,19 @@ import {
 } from '@emberline/domain';
 import type { ServiceContext } from '../lib/context';
 import { ValidationFailed } from '../lib/errors';
-import { boxCondition, latitudeBands, reachCondition } from '../lib/sql-geo';
+import { LATITUDE_BANDS_PER_DEGREE, latitudeBands } from '../lib/sql-geo';
 import { recordGap } from './coverage.service';
-import { APPROVED_PARTNER_SQL } from './partners.service';
 import { searchCatalogue } from './search-catalogue';
-import { firstSlots, offerTechnicians, type FirstSlot, type SlotJob } from './slots.service';
+import { searchIndexFor, type IndexedOffer, type SearchIndexSnapshot } from './search-index';
+import { firstSlots, type FirstSlot, type SlotJob } from './slots.service';
 import { occupiedTimes, slotWindow } from './occupied-times';
 
 const MINUTES_PER_DAY = 1440;
 
-/** A partner in the bounding box that offers the service type and holds every required capability. */
+/** A partner in reach that offers the service type and holds every required capability. */
 interface Candidate {
+  /** Great-circle distance from the base to the place, km. */
+  straightKm: number;
   partnerId: string;
   name: string;
   city: string | null;
@@ -50,6 +53,7 @@ interface Candidate {
   partsMinor: number;
   offerMinutes: number;
   policy: { freeWithinKm: number; ratePerKmMinor: number; maxDistanceKm: number; currency: Currency } | null;
+  technicians: IndexedOffer['technicians'];
 }
 
 /** Where and at what travel cost one candidate would do the job. */
@@ -85,10 +89,10 @@ const vehicleOf = (q: SearchQuery): VehicleProfile => ({
  * at the owner's place when the partner can come.
  */
 function placeJob(c: Candidate, place: GeoPoint, mode: SearchQuery['mode'], ownerRadiusKm: number): Placement | null {
-  const straightKm = greatCircleDistanceM(c.base, place) / 1000;
+  const straightKm = c.straightKm;
   let owner: Placement | null = null;
   if (mode !== 'workshop' && (c.mode === 'mobile' || c.mode === 'both') && c.radiusKm !== null && straightKm <= c.radiusKm && c.policy && c.policy.currency === c.currency) {
-    const fee = travelFee(c.policy, c.base, place);
+    const fee = travelFeeForDistance(c.policy, straightKm);
     if (fee.withinReach) owner = { jobAt: 'owner', distanceKm: straightKm, travelFeeMinor: fee.feeMinor };
   }
   if (owner) return owner;
@@ -99,106 +103,80 @@ function placeJob(c: Candidate, place: GeoPoint, mode: SearchQuery['mode'], owne
 const roundKm = (km: number) => Math.round(km * 10) / 10;
 
 /**
- * Approved partners that offer the service type, hold every one of `capabilityIds`, and may reach
- * the place: inside the fixed box of MAX_SEARCH_RADIUS_KM (index ranges over the latitude bands
- * it covers), and, row by row from the same index, inside the box of their own radius (mobile)
- * or of the owner's (workshop). The exact distance, fee and mode are decided afterwards, in the
- * domain. The index and the join order are fixed: with the OR of the two reaches the optimiser
- * otherwise estimates a full scan as cheaper (several times slower on 10,000 partners), and
- * joining the offer first drops the partners without one before anything else is read.
+ * Approved partners that offer the service type, hold every one of `capabilityIds`, have their
+ * base inside the box of MAX_SEARCH_RADIUS_KM around the place (from the index's latitude bands)
+ * and are within reach of it in some mode: the place inside their radius, or their workshop
+ * inside the owner's. Fee, travel reach and the owner's mode are decided afterwards (placeJob).
  */
-async function loadCandidates(manager: EntityManager, serviceTypeId: number, capabilityIds: number[], place: GeoPoint, ownerRadiusKm: number): Promise<Candidate[]> {
+function candidatesOf(index: SearchIndexSnapshot, serviceTypeId: number, capabilityIds: number[], place: GeoPoint, ownerRadiusKm: number): Candidate[] {
+  const bands = index.byService.get(serviceTypeId);
+  if (!bands) return [];
   const box = boundingBox(place, MAX_SEARCH_RADIUS_KM * 1000);
-  const inBox = boxCondition(box, 'p.base_lat', 'p.base_lng');
-  const comes = reachCondition(place, 'p.base_lat', 'p.base_lng', 'p.radius_km');
-  const hosts = boxCondition(boundingBox(place, ownerRadiusKm * 1000), 'p.base_lat', 'p.base_lng');
-  const holdsAll = capabilityIds.length
-    ? 'AND (SELECT COUNT(*) FROM organisation_capability oc WHERE oc.organisation_id = o.id AND oc.capability_id IN (?)) = ?'
-    : '';
-  const rows: {
-    id: string;
-    name: string;
-    city: string | null;
-    base_lat: number;
-    base_lng: number;
-    mode: WorkMode;
-    radius_km: number | null;
-    offer_id: string;
-    price_minor: string | number;
-    currency: Currency;
-    duration_minutes: number;
-    parts_minor: string | number;
-    free_within_km: number | null;
-    rate_per_km_minor: string | number | null;
-    policy_currency: Currency | null;
-    max_distance_km: number | null;
-  }[] = await manager.query(
-    `SELECT STRAIGHT_JOIN o.id, COALESCE(p.trading_name, o.name) AS name, p.city, p.base_lat, p.base_lng, p.mode, p.radius_km,
-       f.id AS offer_id, f.price_minor, f.currency, f.duration_minutes,
-       (SELECT COALESCE(SUM(op.quantity * pt.unit_price_minor), 0) FROM offer_part op JOIN part pt ON pt.id = op.part_id WHERE op.offer_id = f.id) AS parts_minor,
-       tp.free_within_km, tp.rate_per_km_minor, tp.currency AS policy_currency, tp.max_distance_km
-     FROM partner_profile p FORCE INDEX (ix_partner_profile_band)
-     JOIN offer f ON f.organisation_id = p.organisation_id AND f.service_type_id = ?
-     JOIN organisation o ON o.id = p.organisation_id
-     LEFT JOIN travel_policy tp ON tp.organisation_id = p.organisation_id
-     WHERE ${APPROVED_PARTNER_SQL} AND p.base_band IN (?) AND ${inBox.sql}
-       AND ((p.mode <> 'workshop' AND p.radius_km IS NOT NULL AND ${comes.sql}) OR (p.mode <> 'mobile' AND ${hosts.sql}))
-       ${holdsAll}`,
-    [serviceTypeId, latitudeBands(box), ...inBox.params, ...comes.params, ...hosts.params, ...(capabilityIds.length ? [capabilityIds, capabilityIds.length] : [])],
-  );
-  return rows.map((r) => ({
-    partnerId: r.id,
-    name: r.name,
-    city: r.city,
-    base: { lat: Number(r.base_lat), lng: Number(r.base_lng) },
-    mode: r.mode,
-    radiusKm: r.radius_km === null ? null : Number(r.radius_km),
-    offerId: r.offer_id,
-    currency: r.currency,
-    labourMinor: Number(r.price_minor),
-    partsMinor: Number(r.parts_minor),
-    offerMinutes: Number(r.duration_minutes),
-    policy:
-      r.free_within_km === null || r.policy_currency === null
-        ? null
-        : { freeWithinKm: Number(r.free_within_km), ratePerKmMinor: Number(r.rate_per_km_minor), maxDistanceKm: Number(r.max_distance_km), currency: r.policy_currency },
-  }));
-}
-
-/** Boxes the nearest partners are looked for in, km: the search's own box, a wider one, then everywhere. */
-const NEAREST_BOXES_KM = [MAX_SEARCH_RADIUS_KM, 1000, Number.POSITIVE_INFINITY];
-const NEAREST_COUNT = 3;
-
-/**
- * Up to three approved partners offering the service type, nearest first, leaving out `exclude`.
- * Looked for in growing boxes through the search index: the three nearest in a box are the three
- * nearest anywhere once the third is no further than the box's radius (so one indexed query, at
- * most three when the network is far away).
- */
-async function nearestOffering(manager: EntityManager, serviceTypeId: number, place: GeoPoint, exclude: string[]): Promise<SearchResponse['meta']['nearestOutside']> {
-  for (const km of NEAREST_BOXES_KM) {
-    const box = Number.isFinite(km) ? boundingBox(place, km * 1000) : null;
-    const inBox = box ? boxCondition(box, 'p.base_lat', 'p.base_lng') : null;
-    // the haversine formula in SQL to order; the distance reported is the domain's
-    const rows: { id: string; name: string; city: string | null; base_lat: number; base_lng: number }[] = await manager.query(
-      `SELECT STRAIGHT_JOIN o.id, COALESCE(p.trading_name, o.name) AS name, p.city, p.base_lat, p.base_lng
-       FROM partner_profile p${box ? ' FORCE INDEX (ix_partner_profile_band)' : ''}
-       JOIN offer f ON f.organisation_id = p.organisation_id AND f.service_type_id = ?
-       JOIN organisation o ON o.id = p.organisation_id
-       WHERE ${APPROVED_PARTNER_SQL}${box ? ` AND p.base_band IN (?) AND ${inBox!.sql}` : ''}${exclude.length ? ' AND o.id NOT IN (?)' : ''}
-       ORDER BY ASIN(SQRT(LEAST(1, POW(SIN(RADIANS(p.base_lat - ?) / 2), 2) + COS(RADIANS(?)) * COS(RADIANS(p.base_lat)) * POW(SIN(RADIANS(p.base_lng - ?) / 2), 2)))), o.id
-       LIMIT ${NEAREST_COUNT}`,
-      [serviceTypeId, ...(box ? [latitudeBands(box), ...inBox!.params] : []), ...(exclude.length ? [exclude] : []), place.lat, place.lat, place.lng],
-    );
-    const nearest = rows.map((r) => {
-      const base = { lat: Number(r.base_lat), lng: Number(r.base_lng) };
-      return { partnerId: r.id, name: r.name, city: r.city, exactKm: greatCircleDistanceM(base, place) / 1000, baseLat: base.lat, baseLng: base.lng };
-    });
-    if (!box || (nearest.length === NEAREST_COUNT && nearest[NEAREST_COUNT - 1]!.exactKm <= km)) {
-      return nearest.map(({ exactKm, ...n }) => ({ ...n, distanceKm: roundKm(exactKm) }));
+  const candidates: Candidate[] = [];
+  for (const band of latitudeBands(box)) {
+    const partners = bands.get(band);
+    if (!partners) continue;
+    for (const p of partners) {
+      if (!isInBoundingBox(p.base, box)) continue;
+      const straightKm = greatCircleDistanceM(p.base, place) / 1000;
+      const comes = p.mode !== 'workshop' && p.radiusKm !== null && straightKm <= p.radiusKm;
+      const hosts = p.mode !== 'mobile' && straightKm <= ownerRadiusKm;
+      if (!(comes || hosts)) continue;
+      let holdsAll = true;
+      for (const id of capabilityIds) if (!p.capabilityIds.has(id)) holdsAll = false;
+      if (!holdsAll) continue;
+      const offer = p.offers.get(serviceTypeId)!;
+      candidates.push({
+        straightKm,
+        partnerId: p.partnerId,
+        name: p.name,
+        city: p.city,
+        base: p.base,
+        mode: p.mode,
+        radiusKm: p.radiusKm,
+        offerId: offer.offerId,
+        currency: offer.currency,
+        labourMinor: offer.labourMinor,
+        partsMinor: offer.partsMinor,
+        offerMinutes: offer.offerMinutes,
+        policy: p.policy,
+        technicians: offer.technicians,
+      });
     }
   }
-  return [];
+  return candidates;
+}
+
+const NEAREST_COUNT = 3;
+/** The least distance between two latitudes one band apart, km (along a meridian). */
+const KM_PER_BAND = ((MEAN_EARTH_RADIUS_M / 1000) * Math.PI) / 180 / LATITUDE_BANDS_PER_DEGREE;
+
+/**
+ * Up to three approved partners offering the service type, nearest first (then by id), leaving
+ * out `exclude`. The index's latitude bands are visited outwards from the place's own; a band k
+ * bands away is at least (k − 1) band heights away, so the walk stops once that exceeds the third
+ * nearest found.
+ */
+function nearestOffering(index: SearchIndexSnapshot, serviceTypeId: number, place: GeoPoint, exclude: ReadonlySet<string>): SearchResponse['meta']['nearestOutside'] {
+  const bands = index.byService.get(serviceTypeId);
+  if (!bands?.size) return [];
+  const home = Math.floor(place.lat * LATITUDE_BANDS_PER_DEGREE);
+  const keys = [...bands.keys()];
+  const reach = Math.max(...keys.map((k) => Math.abs(k - home)));
+  const best: { p: { partnerId: string; name: string; city: string | null; base: GeoPoint }; km: number }[] = [];
+  const before = (a: (typeof best)[number], b: (typeof best)[number]) => a.km - b.km || (a.p.partnerId < b.p.partnerId ? -1 : 1);
+  for (let k = 0; k <= reach; k++) {
+    if (best.length === NEAREST_COUNT && (k - 1) * KM_PER_BAND > best[NEAREST_COUNT - 1]!.km) break;
+    for (const band of k ? [home - k, home + k] : [home]) {
+      for (const p of bands.get(band) ?? []) {
+        if (exclude.has(p.partnerId)) continue;
+        best.push({ p, km: greatCircleDistanceM(p.base, place) / 1000 });
+        best.sort(before);
+        if (best.length > NEAREST_COUNT) best.pop();
+      }
+    }
+  }
+  return best.map(({ p, km }) => ({ partnerId: p.partnerId, name: p.name, city: p.city, baseLat: p.base.lat, baseLng: p.base.lng, distanceKm: roundKm(km) }));
 }
 
 /** The instant the local `date` starts in `zone`. */
@@ -233,10 +211,9 @@ export async function search(ctx: ServiceContext, q: SearchQuery, now: Date): Pr
 
   const capabilities = eligibility.requiredCapabilities.map((code) => catalogue.capabilities.get(code));
   const matchedCapabilities = capabilities.filter((c) => c !== undefined).map((c) => ({ code: c.code, name: c.name }));
+  const index = await searchIndexFor(manager).current(manager);
   // a rule may ask for a capability the catalogue does not have: nobody can hold it
-  const candidates = capabilities.every((c) => c !== undefined)
-    ? await loadCandidates(manager, serviceType.id, capabilities.map((c) => Number(c!.id)), place, q.radiusKm)
-    : [];
+  const candidates = capabilities.every((c) => c !== undefined) ? candidatesOf(index, serviceType.id, capabilities.map((c) => Number(c!.id)), place, q.radiusKm) : [];
 
   // who covers the place at all (coverage), then who fits the owner's mode, price and date
   const covering = new Set<string>();
@@ -258,13 +235,12 @@ export async function search(ctx: ServiceContext, q: SearchQuery, now: Date): Pr
   }
 
   if (matches.length) {
-    const teams = await offerTechnicians(manager, matches.map((m) => m.candidate.offerId));
     // every candidate technician's bookings in one query, over any window the slot searches below look at
     const window = slotWindow(now, Math.max(SEARCH_SLOT_DAYS, q.date ? Math.ceil((Date.parse(`${q.date}T00:00:00Z`) - now.getTime()) / 86_400_000) + 2 : 0));
-    const busy = await occupiedTimes(manager, [...teams.values()].flat().map((t) => t.id), window.from, window.to, now);
+    const busy = await occupiedTimes(manager, matches.flatMap((m) => m.candidate.technicians.map((t) => t.id)), window.from, window.to, now);
     const job = (m: Match, from: Date): SlotJob => {
       const base = m.candidate.base;
-      const technicians = (teams.get(m.candidate.offerId) ?? []).map((t) => ({ id: t.id, hours: t.hours, base, bookings: busy.get(t.id) ?? [] }));
+      const technicians = m.candidate.technicians.map((t) => ({ id: t.id, hours: t.hours, base, bookings: busy.get(t.id) ?? [] }));
       return { key: m.candidate.partnerId, technicians, customer: m.placement.jobAt === 'owner' ? place : base, durationMinutes: m.durationMinutes, from };
     };
     /** Fills in the next slot of the matches that have none yet, in as few engine runs as possible. */
@@ -288,7 +264,7 @@ export async function search(ctx: ServiceContext, q: SearchQuery, now: Date): Pr
       fill(
         matches,
         (m) => {
-          const zone = teams.get(m.candidate.offerId)?.[0]?.hours.timeZone;
+          const zone = m.candidate.technicians[0]?.hours.timeZone;
           if (!zone) return null;
           const dayStart = startOfLocalDate(date, zone);
           return dayStart.getTime() + MINUTES_PER_DAY * 60_000 <= now.getTime() ? null : dayStart > now ? dayStart : now;
@@ -303,7 +279,7 @@ export async function search(ctx: ServiceContext, q: SearchQuery, now: Date): Pr
     if (data.length) return { data, meta };
   }
 
-  meta.nearestOutside = await nearestOffering(manager, serviceType.id, place, [...covering]);
+  meta.nearestOutside = nearestOffering(index, serviceType.id, place, covering);
   if (!covering.size) {
     await recordGap(manager, place, serviceType.code, vehicleClassOf(vehicle));
     meta.gapRecorded = true;

@@ -89,7 +89,7 @@ export async function offerTechnicians(manager: EntityManager, offerIds: readonl
 const parsedHours = new Map<string, WorkingHours | null>();
 const PARSED_HOURS_MAX = 5000;
 
-function parseHours(stored: unknown): WorkingHours | null {
+export function parseHours(stored: unknown): WorkingHours | null {
   const text = typeof stored === 'string' ? stored : JSON.stringify(stored);
   let hours = parsedHours.get(text);
   if (hours === undefined) {

@@ -1,0 +1,317 @@
+// The search's index of approved partners, kept in memory: profile and base, service area,
+// travel policy, capabilities, offers with their parts totals and the technicians (with working
+// hours) assigned to each. Ten thousand partners take a few megabytes. A search asks the database
+// one cheap question — are there change-log rows this index has not applied? (the log is written
+// by triggers, see migration 1764690000000) — and reloads only the organisations they name before
+// it answers, so a change is seen by the next search, on every API instance. Bookings are not in
+// the index: they change all the time and are read per search (occupied-times.ts).
+import type { DataSource, EntityManager } from 'typeorm';
+import { LATITUDE_BANDS_PER_DEGREE } from '../lib/sql-geo';
+import type { Currency, GeoPoint, WorkingHours, WorkMode } from '@emberline/domain';
+import { APPROVED_PARTNER_SQL } from './partners.service';
+import { parseHours } from './slots.service';
+
+export interface IndexedOffer {
+  offerId: string;
+  serviceTypeId: number;
+  currency: Currency;
+  labourMinor: number;
+  partsMinor: number;
+  offerMinutes: number;
+  /** Members assigned to the offer who have valid working hours, by user id. */
+  technicians: { id: string; hours: WorkingHours }[];
+}
+
+export interface IndexedPartner {
+  partnerId: string;
+  name: string;
+  city: string | null;
+  base: GeoPoint;
+  /** FLOOR(latitude × LATITUDE_BANDS_PER_DEGREE), as partner_profile.base_band. */
+  band: number;
+  mode: WorkMode;
+  radiusKm: number | null;
+  capabilityIds: ReadonlySet<number>;
+  policy: { freeWithinKm: number; ratePerKmMinor: number; maxDistanceKm: number; currency: Currency } | null;
+  offers: ReadonlyMap<number, IndexedOffer>;
+}
+
+/** One state of the index: replaced whole on a reload, never changed, so a search holding it sees one consistent network. */
+export interface SearchIndexSnapshot {
+  partners: ReadonlyMap<string, IndexedPartner>;
+  /** Per service type id, the partners offering it by latitude band. */
+  byService: ReadonlyMap<number, ReadonlyMap<number, readonly IndexedPartner[]>>;
+}
+
+/**
+ * A log row id below the highest one seen but not yet visible belongs to a transaction still
+ * running, or to one rolled back (its id is never used). It is waited for this long, then given
+ * up; a transaction that writes partner data and stays open longer is not seen until the next
+ * full load (at start, or after MAX_CHANGES_APPLIED at once).
+ */
+export const CHANGE_HOLE_TIMEOUT_MS = 120_000;
+/** Beyond this many changed organisations at once, the whole index is loaded again. */
+export const MAX_CHANGES_APPLIED = 500;
+/** Log rows are kept this long (see pruneSearchIndexChanges), far longer than any hole is waited for. */
+export const CHANGE_LOG_RETENTION_HOURS = 24;
+
+interface PartnerRow {
+  id: string;
+  name: string;
+  city: string | null;
+  base_lat: number;
+  base_lng: number;
+  mode: WorkMode;
+  radius_km: number | null;
+  free_within_km: number | null;
+  rate_per_km_minor: string | number | null;
+  policy_currency: Currency | null;
+  max_distance_km: number | null;
+}
+
+interface OfferRow {
+  id: string;
+  organisation_id: string;
+  service_type_id: number;
+  price_minor: string | number;
+  currency: Currency;
+  duration_minutes: number;
+  parts_minor: string | number;
+}
+
+/** Reads the partners (all approved ones, or those among `organisationIds`), in four queries. */
+async function loadPartners(manager: EntityManager, organisationIds: readonly string[] | null): Promise<IndexedPartner[]> {
+  if (organisationIds && !organisationIds.length) return [];
+  const only = (column: string) => (organisationIds ? ` AND ${column} IN (?)` : '');
+  const params = organisationIds ? [organisationIds] : [];
+  const [partners, offers, capabilities, technicians] = (await Promise.all([
+    manager.query(
+      `SELECT o.id, COALESCE(p.trading_name, o.name) AS name, p.city, p.base_lat, p.base_lng, p.mode, p.radius_km,
+         tp.free_within_km, tp.rate_per_km_minor, tp.currency AS policy_currency, tp.max_distance_km
+       FROM organisation o JOIN partner_profile p ON p.organisation_id = o.id
+       LEFT JOIN travel_policy tp ON tp.organisation_id = o.id
+       WHERE ${APPROVED_PARTNER_SQL}${only('o.id')}`,
+      params,
+    ),
+    manager.query(
+      `SELECT f.id, f.organisation_id, f.service_type_id, f.price_minor, f.currency, f.duration_minutes,
+         COALESCE((SELECT SUM(op.quantity * pt.unit_price_minor) FROM offer_part op JOIN part pt ON pt.id = op.part_id WHERE op.offer_id = f.id), 0) AS parts_minor
+       FROM offer f JOIN organisation o ON o.id = f.organisation_id
+       WHERE o.status = 'approved'${only('f.organisation_id')}`,
+      params,
+    ),
+    manager.query(
+      `SELECT oc.organisation_id, oc.capability_id FROM organisation_capability oc JOIN organisation o ON o.id = oc.organisation_id
+       WHERE o.status = 'approved'${only('oc.organisation_id')}`,
+      params,
+    ),
+    // the technicians still members, with saved hours (the same rule as offerTechnicians)
+    manager.query(
+      `SELECT ot.offer_id, ot.user_id, wh.hours FROM offer_technician ot
+       JOIN organisation o ON o.id = ot.organisation_id
+       JOIN membership m ON m.organisation_id = ot.organisation_id AND m.user_id = ot.user_id
+       JOIN working_hours wh ON wh.organisation_id = ot.organisation_id AND wh.user_id = ot.user_id
+       WHERE o.status = 'approved'${only('ot.organisation_id')}
+       ORDER BY ot.offer_id, ot.user_id`,
+      params,
+    ),
+  ])) as [PartnerRow[], OfferRow[], { organisation_id: string; capability_id: number }[], { offer_id: string; user_id: string; hours: unknown }[]];
+
+  const teams = new Map<string, IndexedOffer['technicians']>();
+  for (const r of technicians) {
+    const hours = parseHours(r.hours);
+    if (!hours) continue;
+    const team = teams.get(r.offer_id);
+    if (team) team.push({ id: r.user_id, hours });
+    else teams.set(r.offer_id, [{ id: r.user_id, hours }]);
+  }
+  const offersOf = new Map<string, Map<number, IndexedOffer>>();
+  for (const r of offers) {
+    const serviceTypeId = Number(r.service_type_id);
+    const list = offersOf.get(r.organisation_id) ?? new Map<number, IndexedOffer>();
+    list.set(serviceTypeId, {
+      offerId: r.id,
+      serviceTypeId,
+      currency: r.currency,
+      labourMinor: Number(r.price_minor),
+      partsMinor: Number(r.parts_minor),
+      offerMinutes: Number(r.duration_minutes),
+      technicians: teams.get(r.id) ?? [],
+    });
+    offersOf.set(r.organisation_id, list);
+  }
+  const capabilitiesOf = new Map<string, Set<number>>();
+  for (const r of capabilities) {
+    const set = capabilitiesOf.get(r.organisation_id) ?? new Set<number>();
+    set.add(Number(r.capability_id));
+    capabilitiesOf.set(r.organisation_id, set);
+  }
+  return partners.map((r) => {
+    const base = { lat: Number(r.base_lat), lng: Number(r.base_lng) };
+    return {
+      partnerId: r.id,
+      name: r.name,
+      city: r.city,
+      base,
+      band: Math.floor(base.lat * LATITUDE_BANDS_PER_DEGREE),
+      mode: r.mode,
+      radiusKm: r.radius_km === null ? null : Number(r.radius_km),
+      capabilityIds: capabilitiesOf.get(r.id) ?? new Set(),
+      policy:
+        r.free_within_km === null || r.policy_currency === null
+          ? null
+          : { freeWithinKm: Number(r.free_within_km), ratePerKmMinor: Number(r.rate_per_km_minor), maxDistanceKm: Number(r.max_distance_km), currency: r.policy_currency },
+      offers: offersOf.get(r.id) ?? new Map(),
+    };
+  });
+}
+
+function snapshotOf(partners: Map<string, IndexedPartner>): SearchIndexSnapshot {
+  const byService = new Map<number, Map<number, IndexedPartner[]>>();
+  for (const p of partners.values()) {
+    for (const serviceTypeId of p.offers.keys()) {
+      let bands = byService.get(serviceTypeId);
+      if (!bands) byService.set(serviceTypeId, (bands = new Map()));
+      const list = bands.get(p.band);
+      if (list) list.push(p);
+      else bands.set(p.band, [p]);
+    }
+  }
+  return { partners, byService };
+}
+
+/**
+ * Which change-log rows have been applied: every id up to `floor`, and `seen` above it. An id
+ * above the floor that is missing is a hole (see CHANGE_HOLE_TIMEOUT_MS), noticed at `holes`.
+ */
+interface LogPosition {
+  floor: number;
+  seen: Set<number>;
+  holes: Map<number, number>;
+}
+
+export class SearchIndex {
+  private snapshot: SearchIndexSnapshot | null = null;
+  private position: LogPosition = { floor: 0, seen: new Set(), holes: new Map() };
+  /** One load at a time; searches that need it wait for the one running. */
+  private loading: Promise<void> | null = null;
+  /** Reloads done so far (for tests and the bench): full loads and organisations reloaded. */
+  readonly stats = { fullLoads: 0, organisationsReloaded: 0 };
+
+  constructor(private readonly now: () => number = Date.now) {}
+
+  /** The index, brought up to date with the change log first (one query when nothing changed). */
+  async current(manager: EntityManager): Promise<SearchIndexSnapshot> {
+    for (;;) {
+      if (this.loading) {
+        await this.loading;
+        continue;
+      }
+      if (!this.snapshot) {
+        await this.run(() => this.loadAll(manager));
+        continue;
+      }
+      const [state]: { n: string | number; top: string | number | null }[] = await manager.query('SELECT COUNT(*) AS n, MAX(id) AS top FROM search_index_change WHERE id > ?', [this.position.floor]);
+      const top = Number(state!.top ?? 0);
+      if (Number(state!.n) === this.position.seen.size && (!top || this.position.seen.has(top))) {
+        this.settleHoles();
+        return this.snapshot;
+      }
+      if (this.loading) continue;
+      await this.run(() => this.applyChanges(manager));
+      return this.snapshot!;
+    }
+  }
+
+  private async run(load: () => Promise<void>): Promise<void> {
+    this.loading = load().finally(() => {
+      this.loading = null;
+    });
+    await this.loading;
+  }
+
+  /**
+   * Loads every approved partner. The log position is read first, and settled rows only (older
+   * than a hole is waited for), so a change committed while the partners are read is applied
+   * again by the next search rather than lost.
+   */
+  private async loadAll(manager: EntityManager): Promise<void> {
+    const settledBefore = new Date(this.now() - CHANGE_HOLE_TIMEOUT_MS);
+    const [[settled], recent]: [{ floor: string | number | null }[], { id: string | number }[]] = await Promise.all([
+      manager.query('SELECT MAX(id) AS floor FROM search_index_change WHERE changed_at < ?', [settledBefore]),
+      manager.query('SELECT id FROM search_index_change WHERE changed_at >= ?', [settledBefore]),
+    ]);
+    const recentIds = recent.map((r) => Number(r.id));
+    // with no settled row (a new or pruned log), the ids below the earliest recent one are gone
+    const floor = settled!.floor !== null ? Number(settled!.floor) : recentIds.length ? recentIds.reduce((a, b) => Math.min(a, b)) - 1 : 0;
+    const position: LogPosition = { floor, seen: new Set(recentIds.filter((id) => id > floor)), holes: new Map() };
+    const partners = await loadPartners(manager, null);
+    this.snapshot = snapshotOf(new Map(partners.map((p) => [p.partnerId, p])));
+    this.position = position;
+    this.stats.fullLoads++;
+    this.settleHoles();
+  }
+
+  /** Reloads the organisations named by log rows not applied yet. */
+  private async applyChanges(manager: EntityManager): Promise<void> {
+    const rows: { id: string | number; organisation_id: string }[] = await manager.query('SELECT id, organisation_id FROM search_index_change WHERE id > ? ORDER BY id', [this.position.floor]);
+    const fresh = rows.filter((r) => !this.position.seen.has(Number(r.id)));
+    const organisations = [...new Set(fresh.map((r) => r.organisation_id))];
+    if (organisations.length > MAX_CHANGES_APPLIED) {
+      await this.loadAll(manager);
+      return;
+    }
+    const reloaded = await loadPartners(manager, organisations);
+    const partners = new Map(this.snapshot!.partners);
+    for (const id of organisations) partners.delete(id);
+    for (const p of reloaded) partners.set(p.partnerId, p);
+    this.snapshot = snapshotOf(partners);
+    for (const r of fresh) this.position.seen.add(Number(r.id));
+    this.stats.organisationsReloaded += organisations.length;
+    this.settleHoles();
+  }
+
+  /** Moves the floor over every applied id, and over holes given up. */
+  private settleHoles(): void {
+    const p = this.position;
+    if (!p.seen.size) {
+      p.holes.clear();
+      return;
+    }
+    const now = this.now();
+    let highest = 0;
+    for (const id of p.seen) if (id > highest) highest = id;
+    for (let id = p.floor + 1; id < highest; id++) if (!p.seen.has(id) && !p.holes.has(id)) p.holes.set(id, now);
+    for (;;) {
+      const next = p.floor + 1;
+      if (p.seen.delete(next)) {
+        p.floor = next;
+        p.holes.delete(next);
+        continue;
+      }
+      const since = p.holes.get(next);
+      if (since !== undefined && now - since >= CHANGE_HOLE_TIMEOUT_MS) {
+        p.holes.delete(next);
+        p.floor = next;
+        continue;
+      }
+      break;
+    }
+  }
+}
+
+const indexes = new WeakMap<DataSource, SearchIndex>();
+
+/** The index of the database `manager` talks to (one per data source, so tests with their own apps never share one). */
+export function searchIndexFor(manager: EntityManager): SearchIndex {
+  const dataSource = manager.connection;
+  let index = indexes.get(dataSource);
+  if (!index) indexes.set(dataSource, (index = new SearchIndex()));
+  return index;
+}
+
+/** Deletes change-log rows older than CHANGE_LOG_RETENTION_HOURS (run by the daily retention job). */
+export async function pruneSearchIndexChanges(manager: EntityManager, now: Date): Promise<number> {
+  const result: { affectedRows?: number } = await manager.query('DELETE FROM search_index_change WHERE changed_at < ?', [new Date(now.getTime() - CHANGE_LOG_RETENTION_HOURS * 3_600_000)]);
+  return result.affectedRows ?? 0;
+}
