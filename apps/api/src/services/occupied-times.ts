@@ -20,22 +20,66 @@ export async function occupiedTimes(
   now: Date,
   o: { excludeBookingId?: string } = {},
 ): Promise<Map<string, ExistingBooking[]>> {
-  const byTechnician = new Map<string, ExistingBooking[]>();
   const ids = [...new Set(technicianIds)];
-  if (!ids.length) return byTechnician;
-  const rows: { id: string; technician_user_id: string; start_at: Date; end_at: Date; job_lat: number; job_lng: number }[] = await manager.query(
-    `SELECT id, technician_user_id, start_at, end_at, job_lat, job_lng FROM booking
-     WHERE technician_user_id IN (?) AND start_at < ? AND end_at > ?
-       AND (status IN (?) OR (status = 'held' AND hold_expires_at > ?))${o.excludeBookingId ? ' AND id <> ?' : ''}
-     ORDER BY technician_user_id, start_at`,
-    [ids, to, from, FIRM, now, ...(o.excludeBookingId ? [o.excludeBookingId] : [])],
+  if (!ids.length) return new Map();
+  const where = occupying('b', ids, from, to, now, o);
+  const rows: OccupiedRow[] = await manager.query(
+    `SELECT b.id, b.technician_user_id, b.start_at, b.end_at, b.job_lat, b.job_lng FROM booking b WHERE ${where.sql} ORDER BY b.technician_user_id, b.start_at`,
+    where.params,
   );
+  return byTechnician(rows);
+}
+
+/**
+ * As occupiedTimes, read in the same statement as a one-row table of other facts (`state`, a
+ * SELECT returning one row, e.g. the search index's change-log check), so both come in one round
+ * trip and from one moment; that row is returned too.
+ */
+export async function occupiedTimesWith<S extends object>(
+  manager: EntityManager,
+  state: { sql: string; params: unknown[] },
+  technicianIds: readonly string[],
+  from: Date,
+  to: Date,
+  now: Date,
+): Promise<{ busy: Map<string, ExistingBooking[]>; state: S }> {
+  const ids = [...new Set(technicianIds)];
+  const where = ids.length ? occupying('b', ids, from, to, now, {}) : { sql: 'FALSE', params: [] };
+  const rows: (OccupiedRow & S)[] = await manager.query(
+    `SELECT s.*, b.id, b.technician_user_id, b.start_at, b.end_at, b.job_lat, b.job_lng
+     FROM (${state.sql}) s LEFT JOIN booking b ON ${where.sql}
+     ORDER BY b.technician_user_id, b.start_at`,
+    [...state.params, ...where.params],
+  );
+  return { busy: byTechnician(rows.filter((r) => r.id !== null)), state: rows[0]! };
+}
+
+interface OccupiedRow {
+  id: string;
+  technician_user_id: string;
+  start_at: Date;
+  end_at: Date;
+  job_lat: number;
+  job_lng: number;
+}
+
+/** The condition on `alias` (a booking) for "occupies one of these technicians within [from, to) at `now`". */
+function occupying(alias: string, ids: readonly string[], from: Date, to: Date, now: Date, o: { excludeBookingId?: string }): { sql: string; params: unknown[] } {
+  return {
+    sql: `${alias}.technician_user_id IN (?) AND ${alias}.start_at < ? AND ${alias}.end_at > ?
+      AND (${alias}.status IN (?) OR (${alias}.status = 'held' AND ${alias}.hold_expires_at > ?))${o.excludeBookingId ? ` AND ${alias}.id <> ?` : ''}`,
+    params: [ids, to, from, FIRM, now, ...(o.excludeBookingId ? [o.excludeBookingId] : [])],
+  };
+}
+
+function byTechnician(rows: readonly OccupiedRow[]): Map<string, ExistingBooking[]> {
+  const grouped = new Map<string, ExistingBooking[]>();
   for (const r of rows) {
-    const list = byTechnician.get(r.technician_user_id) ?? [];
+    const list = grouped.get(r.technician_user_id) ?? [];
     list.push({ id: r.id, start: new Date(r.start_at), end: new Date(r.end_at), location: { lat: Number(r.job_lat), lng: Number(r.job_lng) } });
-    byTechnician.set(r.technician_user_id, list);
+    grouped.set(r.technician_user_id, list);
   }
-  return byTechnician;
+  return grouped;
 }
 
 const DAY_MS = 86_400_000;

@@ -39,8 +39,20 @@ export interface IndexedPartner {
 /** One state of the index: replaced whole on a reload, never changed, so a search holding it sees one consistent network. */
 export interface SearchIndexSnapshot {
   partners: ReadonlyMap<string, IndexedPartner>;
-  /** Per service type id, the partners offering it by latitude band. */
+  /** Per service type id, the partners offering it by latitude band, each band in order of longitude. */
   byService: ReadonlyMap<number, ReadonlyMap<number, readonly IndexedPartner[]>>;
+}
+
+/** Index of the first partner of a band (in order of longitude) at or east of `lng`. */
+export function firstAtOrEastOf(band: readonly IndexedPartner[], lng: number): number {
+  let lo = 0;
+  let hi = band.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (band[mid]!.base.lng < lng) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
 }
 
 /**
@@ -177,6 +189,7 @@ function snapshotOf(partners: Map<string, IndexedPartner>): SearchIndexSnapshot 
       else bands.set(p.band, [p]);
     }
   }
+  for (const bands of byService.values()) for (const list of bands.values()) list.sort((a, b) => a.base.lng - b.base.lng);
   return { partners, byService };
 }
 
@@ -188,6 +201,32 @@ interface LogPosition {
   floor: number;
   seen: Set<number>;
   holes: Map<number, number>;
+}
+
+/**
+ * A snapshot with the question that tells whether it is still current: `sql` is a SELECT of one
+ * row (n, top) to run alone or join into the statement that reads what else the search needs, so
+ * an up-to-date index costs no round trip of its own.
+ */
+export interface SearchIndexCheck {
+  snapshot: SearchIndexSnapshot;
+  sql: string;
+  params: unknown[];
+  /** Whether the row read shows no change beyond the snapshot. */
+  isCurrent(state: LogState): boolean;
+}
+
+interface LogState {
+  n: string | number;
+  top: string | number | null;
+}
+
+const LOG_STATE_SQL = 'SELECT COUNT(*) AS n, MAX(id) AS top FROM search_index_change WHERE id > ?';
+
+/** True when the log rows above the floor are exactly those already applied. */
+function nothingNew(state: LogState, seen: ReadonlySet<number>): boolean {
+  const top = Number(state.top ?? 0);
+  return Number(state.n) === seen.size && (!top || seen.has(top));
 }
 
 export class SearchIndex {
@@ -211,9 +250,8 @@ export class SearchIndex {
         await this.run(() => this.loadAll(manager));
         continue;
       }
-      const [state]: { n: string | number; top: string | number | null }[] = await manager.query('SELECT COUNT(*) AS n, MAX(id) AS top FROM search_index_change WHERE id > ?', [this.position.floor]);
-      const top = Number(state!.top ?? 0);
-      if (Number(state!.n) === this.position.seen.size && (!top || this.position.seen.has(top))) {
+      const [state]: LogState[] = await manager.query(LOG_STATE_SQL, [this.position.floor]);
+      if (nothingNew(state!, this.position.seen)) {
         this.settleHoles();
         return this.snapshot;
       }
@@ -221,6 +259,26 @@ export class SearchIndex {
       await this.run(() => this.applyChanges(manager));
       return this.snapshot!;
     }
+  }
+
+  /**
+   * The index as last brought up to date (loaded first if there is none yet), with the check to
+   * send along with the search's own query; when it says "not current", call `current` and search
+   * again. A reload by another search meanwhile also makes it "not current".
+   */
+  async check(manager: EntityManager): Promise<SearchIndexCheck> {
+    const snapshot = this.snapshot && !this.loading ? this.snapshot : await this.current(manager);
+    const seen = new Set(this.position.seen);
+    return {
+      snapshot,
+      sql: LOG_STATE_SQL,
+      params: [this.position.floor],
+      isCurrent: (state) => {
+        if (this.snapshot !== snapshot || !nothingNew(state, seen)) return false;
+        this.settleHoles();
+        return true;
+      },
+    };
   }
 
   private async run(load: () => Promise<void>): Promise<void> {

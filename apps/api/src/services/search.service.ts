@@ -11,7 +11,6 @@ import {
   compareResults,
   evaluateEligibility,
   greatCircleDistanceM,
-  isInBoundingBox,
   MEAN_EARTH_RADIUS_M,
   MAX_SEARCH_RADIUS_KM,
   SEARCH_SLOT_DAYS,
@@ -31,11 +30,13 @@ import { ValidationFailed } from '../lib/errors';
 import { LATITUDE_BANDS_PER_DEGREE, latitudeBands } from '../lib/sql-geo';
 import { recordGap } from './coverage.service';
 import { searchCatalogue } from './search-catalogue';
-import { searchIndexFor, type IndexedOffer, type SearchIndexSnapshot } from './search-index';
+import { firstAtOrEastOf, searchIndexFor, type IndexedOffer, type SearchIndexCheck, type SearchIndexSnapshot } from './search-index';
 import { firstSlots, type FirstSlot, type SlotJob } from './slots.service';
-import { occupiedTimes, slotWindow } from './occupied-times';
+import { occupiedTimesWith, slotWindow } from './occupied-times';
 
 const MINUTES_PER_DAY = 1440;
+/** Searches run again at most this often while the index catches up with changes made meanwhile. */
+const SEARCH_ATTEMPTS = 3;
 
 /** A partner in reach that offers the service type and holds every required capability. */
 interface Candidate {
@@ -113,35 +114,40 @@ function candidatesOf(index: SearchIndexSnapshot, serviceTypeId: number, capabil
   if (!bands) return [];
   const box = boundingBox(place, MAX_SEARCH_RADIUS_KM * 1000);
   const candidates: Candidate[] = [];
+  // the box's longitudes as ranges (two when it crosses the antimeridian)
+  const ranges: [number, number][] = box.west <= box.east ? [[box.west, box.east]] : [[box.west, 180], [-180, box.east]];
   for (const band of latitudeBands(box)) {
     const partners = bands.get(band);
     if (!partners) continue;
-    for (const p of partners) {
-      if (!isInBoundingBox(p.base, box)) continue;
-      const straightKm = greatCircleDistanceM(p.base, place) / 1000;
-      const comes = p.mode !== 'workshop' && p.radiusKm !== null && straightKm <= p.radiusKm;
-      const hosts = p.mode !== 'mobile' && straightKm <= ownerRadiusKm;
-      if (!(comes || hosts)) continue;
-      let holdsAll = true;
-      for (const id of capabilityIds) if (!p.capabilityIds.has(id)) holdsAll = false;
-      if (!holdsAll) continue;
-      const offer = p.offers.get(serviceTypeId)!;
-      candidates.push({
-        straightKm,
-        partnerId: p.partnerId,
-        name: p.name,
-        city: p.city,
-        base: p.base,
-        mode: p.mode,
-        radiusKm: p.radiusKm,
-        offerId: offer.offerId,
-        currency: offer.currency,
-        labourMinor: offer.labourMinor,
-        partsMinor: offer.partsMinor,
-        offerMinutes: offer.offerMinutes,
-        policy: p.policy,
-        technicians: offer.technicians,
-      });
+    for (const [west, east] of ranges) {
+      for (let i = firstAtOrEastOf(partners, west); i < partners.length && partners[i]!.base.lng <= east; i++) {
+        const p = partners[i]!;
+        if (p.base.lat < box.south || p.base.lat > box.north) continue;
+        const straightKm = greatCircleDistanceM(p.base, place) / 1000;
+        const comes = p.mode !== 'workshop' && p.radiusKm !== null && straightKm <= p.radiusKm;
+        const hosts = p.mode !== 'mobile' && straightKm <= ownerRadiusKm;
+        if (!(comes || hosts)) continue;
+        let holdsAll = true;
+        for (const id of capabilityIds) if (!p.capabilityIds.has(id)) holdsAll = false;
+        if (!holdsAll) continue;
+        const offer = p.offers.get(serviceTypeId)!;
+        candidates.push({
+          straightKm,
+          partnerId: p.partnerId,
+          name: p.name,
+          city: p.city,
+          base: p.base,
+          mode: p.mode,
+          radiusKm: p.radiusKm,
+          offerId: offer.offerId,
+          currency: offer.currency,
+          labourMinor: offer.labourMinor,
+          partsMinor: offer.partsMinor,
+          offerMinutes: offer.offerMinutes,
+          policy: p.policy,
+          technicians: offer.technicians,
+        });
+      }
     }
   }
   return candidates;
@@ -211,80 +217,100 @@ export async function search(ctx: ServiceContext, q: SearchQuery, now: Date): Pr
 
   const capabilities = eligibility.requiredCapabilities.map((code) => catalogue.capabilities.get(code));
   const matchedCapabilities = capabilities.filter((c) => c !== undefined).map((c) => ({ code: c.code, name: c.name }));
-  const index = await searchIndexFor(manager).current(manager);
   // a rule may ask for a capability the catalogue does not have: nobody can hold it
-  const candidates = capabilities.every((c) => c !== undefined) ? candidatesOf(index, serviceType.id, capabilities.map((c) => Number(c!.id)), place, q.radiusKm) : [];
-
-  // who covers the place at all (coverage), then who fits the owner's mode, price and date
-  const covering = new Set<string>();
-  let matches: Match[] = [];
-  for (const c of candidates) {
-    if (!placeJob(c, place, 'any', q.radiusKm)) continue;
-    covering.add(c.partnerId);
-    const placement = placeJob(c, place, q.mode, q.radiusKm);
-    if (!placement) continue;
-    const totalMinor = c.labourMinor + c.partsMinor + placement.travelFeeMinor;
-    if (q.maxPriceMinor !== undefined && (c.currency !== q.currency || totalMinor > q.maxPriceMinor)) continue;
-    matches.push({
-      candidate: c,
-      placement,
-      totalMinor,
-      durationMinutes: c.offerMinutes + eligibility.extraMinutes,
-      maxDistanceKm: placement.jobAt === 'workshop' ? q.radiusKm : (c.radiusKm ?? q.radiusKm),
-    });
+  const capabilityIds = capabilities.every((c) => c !== undefined) ? capabilities.map((c) => Number(c!.id)) : null;
+  const searchIndex = searchIndexFor(manager);
+  // The index as last checked, and the check sent along with the bookings (or alone when there are
+  // none to read): one round trip when nothing changed. When something did, the index catches up
+  // and the search runs again; the last attempt trusts the index it has just brought up to date.
+  for (let attempt = 1; ; attempt++) {
+    const check = await searchIndex.check(manager);
+    const answer = await answerFrom(check, attempt === SEARCH_ATTEMPTS);
+    if (answer) return answer;
+    await searchIndex.current(manager);
   }
 
-  if (matches.length) {
-    // every candidate technician's bookings in one query, over any window the slot searches below look at
-    const window = slotWindow(now, Math.max(SEARCH_SLOT_DAYS, q.date ? Math.ceil((Date.parse(`${q.date}T00:00:00Z`) - now.getTime()) / 86_400_000) + 2 : 0));
-    const busy = await occupiedTimes(manager, matches.flatMap((m) => m.candidate.technicians.map((t) => t.id)), window.from, window.to, now);
-    const job = (m: Match, from: Date): SlotJob => {
-      const base = m.candidate.base;
-      const technicians = m.candidate.technicians.map((t) => ({ id: t.id, hours: t.hours, base, bookings: busy.get(t.id) ?? [] }));
-      return { key: m.candidate.partnerId, technicians, customer: m.placement.jobAt === 'owner' ? place : base, durationMinutes: m.durationMinutes, from };
-    };
-    /** Fills in the next slot of the matches that have none yet, in as few engine runs as possible. */
-    const fill = (list: Match[], from: (m: Match) => Date | null, days: number) => {
-      const todo: Match[] = [];
-      for (const m of list) {
-        if (m.slot !== undefined) continue;
-        // a job longer than a day, or a partner without hours, cannot be booked through the slot engine
-        if (m.durationMinutes > MINUTES_PER_DAY || !from(m)) m.slot = null;
-        else todo.push(m);
-      }
-      const found = firstSlots(
-        todo.map((m) => job(m, from(m)!)),
-        { now, days, place },
-      );
-      for (const m of todo) m.slot = found.get(m.candidate.partnerId) ?? null;
-    };
-    if (q.date) {
-      const date = q.date;
-      // that day in the partner's zone (its first technician's), from now on if it is today
-      fill(
-        matches,
-        (m) => {
-          const zone = m.candidate.technicians[0]?.hours.timeZone;
-          if (!zone) return null;
-          const dayStart = startOfLocalDate(date, zone);
-          return dayStart.getTime() + MINUTES_PER_DAY * 60_000 <= now.getTime() ? null : dayStart > now ? dayStart : now;
-        },
-        1,
-      );
-      for (const m of matches) if (m.slot && !m.slot.localStart.startsWith(date)) m.slot = null;
-      matches = matches.filter((m) => m.slot);
+  /** The answer from one state of the index, or null when the check shows the index was behind. */
+  async function answerFrom(check: SearchIndexCheck, trust: boolean): Promise<SearchResponse | null> {
+    const index = check.snapshot;
+    const candidates = capabilityIds ? candidatesOf(index, serviceType!.id, capabilityIds, place, q.radiusKm) : [];
+
+    // who covers the place at all (coverage), then who fits the owner's mode, price and date
+    const covering = new Set<string>();
+    let matches: Match[] = [];
+    for (const c of candidates) {
+      if (!placeJob(c, place, 'any', q.radiusKm)) continue;
+      covering.add(c.partnerId);
+      const placement = placeJob(c, place, q.mode, q.radiusKm);
+      if (!placement) continue;
+      const totalMinor = c.labourMinor + c.partsMinor + placement.travelFeeMinor;
+      if (q.maxPriceMinor !== undefined && (c.currency !== q.currency || totalMinor > q.maxPriceMinor)) continue;
+      matches.push({
+        candidate: c,
+        placement,
+        totalMinor,
+        durationMinutes: c.offerMinutes + eligibility.extraMinutes,
+        maxDistanceKm: placement.jobAt === 'workshop' ? q.radiusKm : (c.radiusKm ?? q.radiusKm),
+      });
     }
-    meta.total = matches.length;
-    const data = rank(matches, q, now, (list) => fill(list, () => now, SEARCH_SLOT_DAYS), matchedCapabilities);
-    if (data.length) return { data, meta };
-  }
 
-  meta.nearestOutside = nearestOffering(index, serviceType.id, place, covering);
-  if (!covering.size) {
-    await recordGap(manager, place, serviceType.code, vehicleClassOf(vehicle));
-    meta.gapRecorded = true;
+    if (matches.length) {
+      // every candidate technician's bookings in one query, over any window the slot searches below look at
+      const window = slotWindow(now, Math.max(SEARCH_SLOT_DAYS, q.date ? Math.ceil((Date.parse(`${q.date}T00:00:00Z`) - now.getTime()) / 86_400_000) + 2 : 0));
+      const technicianIds = matches.flatMap((m) => m.candidate.technicians.map((t) => t.id));
+      const { busy, state } = await occupiedTimesWith<{ n: number; top: number | null }>(manager, check, technicianIds, window.from, window.to, now);
+      if (!check.isCurrent(state) && !trust) return null;
+      const job = (m: Match, from: Date): SlotJob => {
+        const base = m.candidate.base;
+        const technicians = m.candidate.technicians.map((t) => ({ id: t.id, hours: t.hours, base, bookings: busy.get(t.id) ?? [] }));
+        return { key: m.candidate.partnerId, technicians, customer: m.placement.jobAt === 'owner' ? place : base, durationMinutes: m.durationMinutes, from };
+      };
+      /** Fills in the next slot of the matches that have none yet, in as few engine runs as possible. */
+      const fill = (list: Match[], from: (m: Match) => Date | null, days: number) => {
+        const todo: Match[] = [];
+        for (const m of list) {
+          if (m.slot !== undefined) continue;
+          // a job longer than a day, or a partner without hours, cannot be booked through the slot engine
+          if (m.durationMinutes > MINUTES_PER_DAY || !from(m)) m.slot = null;
+          else todo.push(m);
+        }
+        const found = firstSlots(
+          todo.map((m) => job(m, from(m)!)),
+          { now, days, place },
+        );
+        for (const m of todo) m.slot = found.get(m.candidate.partnerId) ?? null;
+      };
+      if (q.date) {
+        const date = q.date;
+        // that day in the partner's zone (its first technician's), from now on if it is today
+        fill(
+          matches,
+          (m) => {
+            const zone = m.candidate.technicians[0]?.hours.timeZone;
+            if (!zone) return null;
+            const dayStart = startOfLocalDate(date, zone);
+            return dayStart.getTime() + MINUTES_PER_DAY * 60_000 <= now.getTime() ? null : dayStart > now ? dayStart : now;
+          },
+          1,
+        );
+        for (const m of matches) if (m.slot && !m.slot.localStart.startsWith(date)) m.slot = null;
+        matches = matches.filter((m) => m.slot);
+      }
+      meta.total = matches.length;
+      const data = rank(matches, q, now, (list) => fill(list, () => now, SEARCH_SLOT_DAYS), matchedCapabilities);
+      if (data.length) return { data, meta };
+    } else {
+      const [state] = await manager.query(check.sql, check.params);
+      if (!check.isCurrent(state) && !trust) return null;
+    }
+
+    meta.nearestOutside = nearestOffering(index, serviceType!.id, place, covering);
+    if (!covering.size) {
+      await recordGap(manager, place, serviceType!.code, vehicleClassOf(vehicle));
+      meta.gapRecorded = true;
+    }
+    return { data: [], meta };
   }
-  return { data: [], meta };
 }
 
 /**
