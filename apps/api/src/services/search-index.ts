@@ -178,7 +178,8 @@ async function loadPartners(manager: EntityManager, organisationIds: readonly st
   });
 }
 
-function snapshotOf(partners: Map<string, IndexedPartner>): SearchIndexSnapshot {
+/** A snapshot of these partners, with the bands built (exported for tests). */
+export function snapshotOf(partners: Map<string, IndexedPartner>): SearchIndexSnapshot {
   const byService = new Map<number, Map<number, IndexedPartner[]>>();
   for (const p of partners.values()) {
     for (const serviceTypeId of p.offers.keys()) {

@@ -109,7 +109,7 @@ const roundKm = (km: number) => Math.round(km * 10) / 10;
  * and are within reach of it in some mode: the place inside their radius, or their workshop
  * inside the owner's. Fee, travel reach and the owner's mode are decided afterwards (placeJob).
  */
-function candidatesOf(index: SearchIndexSnapshot, serviceTypeId: number, capabilityIds: number[], place: GeoPoint, ownerRadiusKm: number): Candidate[] {
+export function candidatesOf(index: SearchIndexSnapshot, serviceTypeId: number, capabilityIds: number[], place: GeoPoint, ownerRadiusKm: number): Candidate[] {
   const bands = index.byService.get(serviceTypeId);
   if (!bands) return [];
   const box = boundingBox(place, MAX_SEARCH_RADIUS_KM * 1000);
@@ -163,7 +163,7 @@ const KM_PER_BAND = ((MEAN_EARTH_RADIUS_M / 1000) * Math.PI) / 180 / LATITUDE_BA
  * bands away is at least (k − 1) band heights away, so the walk stops once that exceeds the third
  * nearest found.
  */
-function nearestOffering(index: SearchIndexSnapshot, serviceTypeId: number, place: GeoPoint, exclude: ReadonlySet<string>): SearchResponse['meta']['nearestOutside'] {
+export function nearestOffering(index: SearchIndexSnapshot, serviceTypeId: number, place: GeoPoint, exclude: ReadonlySet<string>): SearchResponse['meta']['nearestOutside'] {
   const bands = index.byService.get(serviceTypeId);
   if (!bands?.size) return [];
   const home = Math.floor(place.lat * LATITUDE_BANDS_PER_DEGREE);
