@@ -9,6 +9,7 @@ import { VERSION } from './version';
 import { localSecret } from './lib/local-secrets';
 import { createScheduler, type Scheduler } from './jobs/scheduler';
 import { loadPlaces } from './services/places.service';
+import { searchIndexFor } from './services/search-index';
 
 function fail(message: string, exitCode: number): never {
   process.stderr.write(`\n✖ ${message}\n\n`);
@@ -62,6 +63,13 @@ async function main(): Promise<void> {
     loadPlaces().then(
       (index) => logger.info({ places: index.names.length, ms: Math.round(performance.now() - t0) }, 'place index ready'),
       (err: unknown) => logger.warn({ err: (err as Error).message }, 'place index not built yet; the first look-up will try again'),
+    );
+    // the search index too, so the first owner's search does not wait for every partner to load
+    const t1 = performance.now();
+    const searchIndex = searchIndexFor(dataSource.manager);
+    searchIndex.current(dataSource.manager).then(
+      (index) => logger.info({ partners: index.partners.size, ms: Math.round(performance.now() - t1) }, 'search index ready'),
+      (err: unknown) => logger.warn({ err: (err as Error).message }, 'search index not loaded yet; the first search will try again'),
     );
   });
 

@@ -235,6 +235,18 @@ describe('slot engine properties (fast-check, oracle: IANA tz database via Intl)
     );
   }, TIMEOUT);
 
+  it('with maxSlotsPerTechnician = k, gives the first k of the oracle\'s starts and nothing else', () => {
+    fc.assert(
+      fc.property(queries, fc.integer({ min: 1, max: 4 }), (q, k) => {
+        const limited = computeSlots({ ...q, maxSlotsPerTechnician: k });
+        const expected = oracle(q).slice(0, k).map((t) => new Date(t).toISOString());
+        expect(startsOf(limited).map((t) => new Date(t).toISOString())).toEqual(expected);
+        expect(limited.organisation.map((s) => s.start)).toEqual(expected);
+      }),
+      { numRuns: RUNS },
+    );
+  }, TIMEOUT);
+
   it('the organisation view is the union of the technicians, each start naming exactly those free for it', () => {
     fc.assert(
       fc.property(queries, queries, (q1, q2) => {

@@ -170,7 +170,8 @@ export function firstSlots(jobs: readonly SlotJob[], q: { now: Date; days: numbe
     const owner: SlotJob[] = [];
     const technicians = group.flatMap((job) => job.technicians.map((t) => (owner.push(job), { ...t, id: `${owner.length - 1}` })));
     const first = group[0]!;
-    const result = computeSlots({ technicians, durationMinutes: first.durationMinutes, customer: first.customer, now: q.now, from: first.from, days });
+    // only each technician's first start is used
+    const result = computeSlots({ technicians, durationMinutes: first.durationMinutes, customer: first.customer, now: q.now, from: first.from, days, maxSlotsPerTechnician: 1 });
     const earliest = new Map<SlotJob, { start: string; localStart: string; zone: string }>();
     result.technicians.forEach((t, i) => {
       const slot = t.slots[0];

@@ -66,6 +66,10 @@ export function computeSlots(query: SlotQuery): SlotResult {
   if (!Number.isInteger(query.days) || query.days < 1 || query.days > MAX_SEARCH_DAYS) {
     throw new RangeError(`days must be a whole number from 1 to ${MAX_SEARCH_DAYS}, got ${query.days}`);
   }
+  const maxSlots = query.maxSlotsPerTechnician ?? Number.POSITIVE_INFINITY;
+  if (!(maxSlots === Number.POSITIVE_INFINITY || (Number.isInteger(maxSlots) && maxSlots >= 1))) {
+    throw new RangeError(`maxSlotsPerTechnician must be a whole number of 1 or more, got ${query.maxSlotsPerTechnician}`);
+  }
   assertGeoPoint(query.customer, 'customer');
   const travel: TravelAssumptions = { ...DEFAULT_TRAVEL_ASSUMPTIONS, ...query.travel };
   assertTravelAssumptions(travel);
@@ -78,6 +82,7 @@ export function computeSlots(query: SlotQuery): SlotResult {
     gridMs: gridMinutes * MINUTE_MS,
     customer: query.customer,
     travel,
+    maxSlots,
     calendars: new Map(),
     labels: { dates: new Map(), utcTimes: new Map(), localTimes: new Map(), offsets: new Map() },
   };
@@ -114,6 +119,8 @@ interface Context {
   gridMs: number;
   customer: GeoPoint;
   travel: TravelAssumptions;
+  /** Slots per technician to stop at. */
+  maxSlots: number;
   calendars: Map<string, ZoneCalendar>;
   /** Pieces of labels, shared by all labels of one call (see utcText). */
   labels: { dates: Map<number, string>; utcTimes: Map<number, string>; localTimes: Map<number, string>; offsets: Map<number, string> };
@@ -355,6 +362,7 @@ function gridSlots(allowed: Span[], clock: ZoneClock, context: Context): { slots
         lastWall = wall;
         startsMs.push(p);
         slots.push(slotAt(p, offset, context));
+        if (slots.length >= context.maxSlots) return { slots, startsMs };
       }
       if (change > range.end) break;
       t = change;

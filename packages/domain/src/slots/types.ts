@@ -43,6 +43,11 @@ export interface SlotQuery {
   travel?: Partial<TravelAssumptions>;
   /** Zone of the organisation-wide labels; defaults to the first technician's zone. */
   timeZone?: string;
+  /**
+   * At most this many slots per technician, the earliest (default: all). A caller that needs only
+   * the next free start asks for 1, and the engine stops at it instead of labelling every slot.
+   */
+  maxSlotsPerTechnician?: number;
 }
 
 export interface BookableSlot {
