@@ -4,10 +4,10 @@
 // other test file puts anyone.
 import { Geodesic } from 'geographiclib-geodesic';
 import request from 'supertest';
-import type { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { gapCell, SearchResponseSchema } from '@emberline/domain';
 import { createTestApp, type TestApp } from '../setup/app';
+import { countQueries } from '../setup/queries';
 import { partnerWithTeam } from '../setup/accounts';
 import { approvedPartner, bearer, CAPABILITIES, networkAdmin } from '../setup/onboarding';
 
@@ -58,27 +58,6 @@ async function partner(o: { area: object; capabilities?: typeof CAPABILITIES; pr
   await request(t.app).put(`/api/orgs/${p.orgId}/technicians/${tech}/hours`).set(bearer(p.admin)).send(HOURS).expect(200);
   if (o.policy !== false) await request(t.app).put(`/api/orgs/${p.orgId}/travel-policy`).set(bearer(p.admin)).send(POLICY).expect(200);
   return p;
-}
-
-/** Counts the SQL statements the app sends while `fn` runs, through every query runner it creates. */
-async function countQueries(ds: DataSource, fn: () => Promise<unknown>): Promise<number> {
-  const original = ds.createQueryRunner.bind(ds);
-  let n = 0;
-  ds.createQueryRunner = ((mode?: 'master' | 'slave') => {
-    const runner = original(mode);
-    const query = runner.query.bind(runner);
-    runner.query = ((...args: Parameters<typeof query>) => {
-      n++;
-      return query(...args);
-    }) as typeof runner.query;
-    return runner;
-  }) as typeof ds.createQueryRunner;
-  try {
-    await fn();
-  } finally {
-    ds.createQueryRunner = original;
-  }
-  return n;
 }
 
 beforeAll(async () => {

@@ -56,10 +56,11 @@ export function firstAtOrEastOf(band: readonly IndexedPartner[], lng: number): n
 }
 
 /**
- * A log row id below the highest one seen but not yet visible belongs to a transaction still
- * running, or to one rolled back (its id is never used). It is waited for this long, then given
- * up; a transaction that writes partner data and stays open longer is not seen until the next
- * full load (at start, or after MAX_CHANGES_APPLIED at once).
+ * A log row id below one already visible, but not visible itself, belongs to a transaction still
+ * running, or to one rolled back (its id is never used). It is waited for until the visible row
+ * after it is this old (by the database's clock), then given up; a transaction that writes
+ * partner data and stays open longer is not seen until the next full load (at start, or after
+ * MAX_CHANGES_APPLIED at once).
  */
 export const CHANGE_HOLE_TIMEOUT_MS = 120_000;
 /** Beyond this many changed organisations at once, the whole index is loaded again. */
@@ -195,13 +196,13 @@ export function snapshotOf(partners: Map<string, IndexedPartner>): SearchIndexSn
 }
 
 /**
- * Which change-log rows have been applied: every id up to `floor`, and `seen` above it. An id
- * above the floor that is missing is a hole (see CHANGE_HOLE_TIMEOUT_MS), noticed at `holes`.
+ * Which change-log rows have been applied: every id up to `floor` (or given up, see
+ * CHANGE_HOLE_TIMEOUT_MS), and the ids in `seen` above it, each with its row's time (ms, the
+ * database's clock). A missing id between the floor and a seen one is a hole.
  */
 interface LogPosition {
   floor: number;
-  seen: Set<number>;
-  holes: Map<number, number>;
+  seen: Map<number, number>;
 }
 
 /**
@@ -217,28 +218,30 @@ export interface SearchIndexCheck {
   isCurrent(state: LogState): boolean;
 }
 
-interface LogState {
+export interface LogState {
   n: string | number;
   top: string | number | null;
+  /** The database's clock when it answered. */
+  at: Date | string;
 }
 
-const LOG_STATE_SQL = 'SELECT COUNT(*) AS n, MAX(id) AS top FROM search_index_change WHERE id > ?';
+const LOG_STATE_SQL = 'SELECT COUNT(*) AS n, MAX(id) AS top, NOW(3) AS at FROM search_index_change WHERE id > ?';
+
+const msOf = (value: Date | string) => (value instanceof Date ? value.getTime() : Date.parse(value));
 
 /** True when the log rows above the floor are exactly those already applied. */
-function nothingNew(state: LogState, seen: ReadonlySet<number>): boolean {
+function nothingNew(state: LogState, seen: ReadonlySet<number> | ReadonlyMap<number, number>): boolean {
   const top = Number(state.top ?? 0);
   return Number(state.n) === seen.size && (!top || seen.has(top));
 }
 
 export class SearchIndex {
   private snapshot: SearchIndexSnapshot | null = null;
-  private position: LogPosition = { floor: 0, seen: new Set(), holes: new Map() };
+  private position: LogPosition = { floor: 0, seen: new Map() };
   /** One load at a time; searches that need it wait for the one running. */
   private loading: Promise<void> | null = null;
   /** Reloads done so far (for tests and the bench): full loads and organisations reloaded. */
   readonly stats = { fullLoads: 0, organisationsReloaded: 0 };
-
-  constructor(private readonly now: () => number = Date.now) {}
 
   /** The index, brought up to date with the change log first (one query when nothing changed). */
   async current(manager: EntityManager): Promise<SearchIndexSnapshot> {
@@ -253,7 +256,7 @@ export class SearchIndex {
       }
       const [state]: LogState[] = await manager.query(LOG_STATE_SQL, [this.position.floor]);
       if (nothingNew(state!, this.position.seen)) {
-        this.settleHoles();
+        this.settle(msOf(state!.at));
         return this.snapshot;
       }
       if (this.loading) continue;
@@ -269,14 +272,14 @@ export class SearchIndex {
    */
   async check(manager: EntityManager): Promise<SearchIndexCheck> {
     const snapshot = this.snapshot && !this.loading ? this.snapshot : await this.current(manager);
-    const seen = new Set(this.position.seen);
+    const seen = new Set(this.position.seen.keys());
     return {
       snapshot,
       sql: LOG_STATE_SQL,
       params: [this.position.floor],
       isCurrent: (state) => {
         if (this.snapshot !== snapshot || !nothingNew(state, seen)) return false;
-        this.settleHoles();
+        this.settle(msOf(state.at));
         return true;
       },
     };
@@ -290,30 +293,31 @@ export class SearchIndex {
   }
 
   /**
-   * Loads every approved partner. The log position is read first, and settled rows only (older
-   * than a hole is waited for), so a change committed while the partners are read is applied
-   * again by the next search rather than lost.
+   * Loads every approved partner. The log position is read first, so a change committed while the
+   * partners are read is applied again by the next search rather than lost: the floor is the last
+   * row older than a hole is waited for (every id below it is settled), and every row above it
+   * counts as seen; ids missing among those are holes like any other.
    */
   private async loadAll(manager: EntityManager): Promise<void> {
-    const settledBefore = new Date(this.now() - CHANGE_HOLE_TIMEOUT_MS);
-    const [[settled], recent]: [{ floor: string | number | null }[], { id: string | number }[]] = await Promise.all([
-      manager.query('SELECT MAX(id) AS floor FROM search_index_change WHERE changed_at < ?', [settledBefore]),
-      manager.query('SELECT id FROM search_index_change WHERE changed_at >= ?', [settledBefore]),
+    const [settled]: { floor: string | number | null }[] = await manager.query('SELECT MAX(id) AS floor FROM search_index_change WHERE changed_at < NOW(3) - INTERVAL ? SECOND', [
+      CHANGE_HOLE_TIMEOUT_MS / 1000,
     ]);
-    const recentIds = recent.map((r) => Number(r.id));
-    // with no settled row (a new or pruned log), the ids below the earliest recent one are gone
-    const floor = settled!.floor !== null ? Number(settled!.floor) : recentIds.length ? recentIds.reduce((a, b) => Math.min(a, b)) - 1 : 0;
-    const position: LogPosition = { floor, seen: new Set(recentIds.filter((id) => id > floor)), holes: new Map() };
+    const floor = Number(settled!.floor ?? 0);
+    const rows: { id: string | number; changed_at: Date | string; at: Date | string }[] = await manager.query('SELECT id, changed_at, NOW(3) AS at FROM search_index_change WHERE id > ?', [floor]);
+    const position: LogPosition = { floor, seen: new Map(rows.map((r) => [Number(r.id), msOf(r.changed_at)])) };
     const partners = await loadPartners(manager, null);
     this.snapshot = snapshotOf(new Map(partners.map((p) => [p.partnerId, p])));
     this.position = position;
     this.stats.fullLoads++;
-    this.settleHoles();
+    if (rows.length) this.settle(msOf(rows[0]!.at));
   }
 
   /** Reloads the organisations named by log rows not applied yet. */
   private async applyChanges(manager: EntityManager): Promise<void> {
-    const rows: { id: string | number; organisation_id: string }[] = await manager.query('SELECT id, organisation_id FROM search_index_change WHERE id > ? ORDER BY id', [this.position.floor]);
+    const rows: { id: string | number; organisation_id: string; changed_at: Date | string; at: Date | string }[] = await manager.query(
+      'SELECT id, organisation_id, changed_at, NOW(3) AS at FROM search_index_change WHERE id > ? ORDER BY id',
+      [this.position.floor],
+    );
     const fresh = rows.filter((r) => !this.position.seen.has(Number(r.id)));
     const organisations = [...new Set(fresh.map((r) => r.organisation_id))];
     if (organisations.length > MAX_CHANGES_APPLIED) {
@@ -325,36 +329,32 @@ export class SearchIndex {
     for (const id of organisations) partners.delete(id);
     for (const p of reloaded) partners.set(p.partnerId, p);
     this.snapshot = snapshotOf(partners);
-    for (const r of fresh) this.position.seen.add(Number(r.id));
+    // another search may have moved the floor meanwhile (over holes given up)
+    for (const r of fresh) if (Number(r.id) > this.position.floor) this.position.seen.set(Number(r.id), msOf(r.changed_at));
     this.stats.organisationsReloaded += organisations.length;
-    this.settleHoles();
+    if (rows.length) this.settle(msOf(rows[0]!.at));
   }
 
-  /** Moves the floor over every applied id, and over holes given up. */
-  private settleHoles(): void {
+  /**
+   * Moves the floor over every applied id, and over holes given up: the ids missing below the
+   * lowest seen one were handed out before its row was written, so once that row is
+   * CHANGE_HOLE_TIMEOUT_MS old (`nowMs`, the database's clock) their transactions have been open
+   * at least that long.
+   */
+  private settle(nowMs: number): void {
     const p = this.position;
-    if (!p.seen.size) {
-      p.holes.clear();
-      return;
-    }
-    const now = this.now();
-    let highest = 0;
-    for (const id of p.seen) if (id > highest) highest = id;
-    for (let id = p.floor + 1; id < highest; id++) if (!p.seen.has(id) && !p.holes.has(id)) p.holes.set(id, now);
     for (;;) {
-      const next = p.floor + 1;
-      if (p.seen.delete(next)) {
-        p.floor = next;
-        p.holes.delete(next);
+      if (p.seen.delete(p.floor + 1)) {
+        p.floor++;
         continue;
       }
-      const since = p.holes.get(next);
-      if (since !== undefined && now - since >= CHANGE_HOLE_TIMEOUT_MS) {
-        p.holes.delete(next);
-        p.floor = next;
-        continue;
+      let lowest = Number.POSITIVE_INFINITY;
+      for (const id of p.seen.keys()) {
+        if (id <= p.floor) p.seen.delete(id);
+        else if (id < lowest) lowest = id;
       }
-      break;
+      if (lowest === Number.POSITIVE_INFINITY || nowMs - p.seen.get(lowest)! < CHANGE_HOLE_TIMEOUT_MS) return;
+      p.floor = lowest - 1;
     }
   }
 }

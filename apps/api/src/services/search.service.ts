@@ -30,7 +30,7 @@ import { ValidationFailed } from '../lib/errors';
 import { LATITUDE_BANDS_PER_DEGREE, latitudeBands } from '../lib/sql-geo';
 import { recordGap } from './coverage.service';
 import { searchCatalogue } from './search-catalogue';
-import { firstAtOrEastOf, searchIndexFor, type IndexedOffer, type SearchIndexCheck, type SearchIndexSnapshot } from './search-index';
+import { firstAtOrEastOf, searchIndexFor, type IndexedOffer, type LogState, type SearchIndexCheck, type SearchIndexSnapshot } from './search-index';
 import { firstSlots, type FirstSlot, type SlotJob } from './slots.service';
 import { occupiedTimesWith, slotWindow } from './occupied-times';
 
@@ -258,7 +258,7 @@ export async function search(ctx: ServiceContext, q: SearchQuery, now: Date): Pr
       // every candidate technician's bookings in one query, over any window the slot searches below look at
       const window = slotWindow(now, Math.max(SEARCH_SLOT_DAYS, q.date ? Math.ceil((Date.parse(`${q.date}T00:00:00Z`) - now.getTime()) / 86_400_000) + 2 : 0));
       const technicianIds = matches.flatMap((m) => m.candidate.technicians.map((t) => t.id));
-      const { busy, state } = await occupiedTimesWith<{ n: number; top: number | null }>(manager, check, technicianIds, window.from, window.to, now);
+      const { busy, state } = await occupiedTimesWith<LogState>(manager, check, technicianIds, window.from, window.to, now);
       if (!check.isCurrent(state) && !trust) return null;
       const job = (m: Match, from: Date): SlotJob => {
         const base = m.candidate.base;
