@@ -130,7 +130,9 @@ describe('GET /api/search', () => {
     // by hand: road 25.2 km × 1.3 = 32.8 → 33 km; 33 − 10 free = 23 km × 0.90 EUR = 20.70 EUR
     // labour 45.00 + parts 2 × 15.00 + travel 20.70 = 95.70 EUR; 30 minutes
     expect(r).toMatchObject({ currency: 'EUR', labourMinor: 4500, partsMinor: 3000, travelFeeMinor: 2070, totalMinor: 9570, durationMinutes: 30, rating: null, reviewCount: 0 });
-    expect(r.matchedCapabilities).toEqual([{ code: 'digital-multimeter', name: expect.any(String) }]);
+    // sent once for the whole search, as every result holds it
+    expect(r.matchedCapabilities).toBeUndefined();
+    expect(res.body.meta.matchedCapabilities).toEqual([{ code: 'digital-multimeter', name: expect.any(String) }]);
   });
 
   it('gives the first free slot, the one the partner\'s slot list starts with', async () => {
@@ -143,7 +145,7 @@ describe('GET /api/search', () => {
     const res = await search({ serviceType: 'handset-pairing', ...CLISSON, electricalSystemV: 24 }).expect(200);
     expect(ids(res)).toEqual([M1.orgId]);
     expect(result(res, M1)).toMatchObject({ durationMinutes: 45 });
-    expect((result(res, M1)!.matchedCapabilities as { code: string }[]).map((c) => c.code)).toEqual(['digital-multimeter', 'lin-can-tools']);
+    expect((res.body.meta.matchedCapabilities as { code: string }[]).map((c) => c.code)).toEqual(['digital-multimeter', 'lin-can-tools']);
     expect(res.body.meta.eligibility).toMatchObject({ eligible: true, extraMinutes: 15, requiredCapabilities: ['digital-multimeter', 'lin-can-tools'] });
     expect(res.body.meta.eligibility.warnings.map((w: { ruleCode: string }) => w.ruleCode)).toEqual([RULE_CODE]);
     // without the voltage the rule is not applied, and the field is reported as unknown

@@ -110,10 +110,6 @@ const result = (over: Partial<SearchResult>): SearchResult => ({
   rating: null,
   reviewCount: 0,
   nextSlot: { start: '2026-12-03T07:00:00.000Z', localStart: '2026-12-03T08:00', timeZone: 'Europe/Vienna' },
-  matchedCapabilities: [
-    { code: 'digital-multimeter', name: 'Digital multimeter' },
-    { code: 'exhaust-gas-analyser', name: 'Exhaust gas analyser' },
-  ],
   score: 0.81,
   ...over,
 });
@@ -123,6 +119,10 @@ const response = (data: SearchResult[], meta: Partial<SearchResponse['meta']> = 
     total: data.length,
     serviceType: { code: 'seasonal-heater-service', name: 'Seasonal heater service', cautions: ['exhaust-gas', 'fuel-system'] },
     eligibility: eligible,
+    matchedCapabilities: [
+      { code: 'digital-multimeter', name: 'Digital multimeter' },
+      { code: 'exhaust-gas-analyser', name: 'Exhaust gas analyser' },
+    ],
     nearestOutside: [],
     gapRecorded: false,
     ...meta,

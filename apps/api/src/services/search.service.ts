@@ -210,13 +210,14 @@ export async function search(ctx: ServiceContext, q: SearchQuery, now: Date): Pr
     total: 0,
     serviceType: { code: serviceType.code, name: serviceType.name, cautions: serviceType.cautions },
     eligibility,
+    matchedCapabilities: [],
     nearestOutside: [],
     gapRecorded: false,
   };
   if (!eligibility.eligible) return { data: [], meta };
 
   const capabilities = eligibility.requiredCapabilities.map((code) => catalogue.capabilities.get(code));
-  const matchedCapabilities = capabilities.filter((c) => c !== undefined).map((c) => ({ code: c.code, name: c.name }));
+  meta.matchedCapabilities = capabilities.filter((c) => c !== undefined).map((c) => ({ code: c.code, name: c.name }));
   // a rule may ask for a capability the catalogue does not have: nobody can hold it
   const capabilityIds = capabilities.every((c) => c !== undefined) ? capabilities.map((c) => Number(c!.id)) : null;
   const searchIndex = searchIndexFor(manager);
@@ -297,7 +298,7 @@ export async function search(ctx: ServiceContext, q: SearchQuery, now: Date): Pr
         matches = matches.filter((m) => m.slot);
       }
       meta.total = matches.length;
-      const data = rank(matches, q, now, (list) => fill(list, () => now, SEARCH_SLOT_DAYS), matchedCapabilities);
+      const data = rank(matches, q, now, (list) => fill(list, () => now, SEARCH_SLOT_DAYS));
       if (data.length) return { data, meta };
     } else {
       const [state] = await manager.query(check.sql, check.params);
@@ -320,7 +321,7 @@ export async function search(ctx: ServiceContext, q: SearchQuery, now: Date): Pr
  * on the page; for "distance" and "price" only for the page; for "soonest" (and with a date,
  * already done) for every match.
  */
-function rank(matches: Match[], q: SearchQuery, now: Date, fillSlots: (list: Match[]) => void, matchedCapabilities: SearchResult['matchedCapabilities']): SearchResult[] {
+function rank(matches: Match[], q: SearchQuery, now: Date, fillSlots: (list: Match[]) => void): SearchResult[] {
   const cheapest = new Map<Currency, number>();
   for (const m of matches) cheapest.set(m.candidate.currency, Math.min(cheapest.get(m.candidate.currency) ?? Number.POSITIVE_INFINITY, m.totalMinor));
   const windowMinutes = SEARCH_SLOT_DAYS * MINUTES_PER_DAY;
@@ -356,7 +357,6 @@ function rank(matches: Match[], q: SearchQuery, now: Date, fillSlots: (list: Mat
       rating: null,
       reviewCount: 0,
       nextSlot: slot,
-      matchedCapabilities,
       score: scoreOf(m, slot),
     };
   };

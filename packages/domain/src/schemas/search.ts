@@ -60,7 +60,6 @@ export const SearchResultSchema = z.object({
   rating: z.number().nullable(),
   reviewCount: z.number().int(),
   nextSlot: z.object({ start: z.string(), localStart: z.string(), timeZone: z.string() }).nullable(),
-  matchedCapabilities: z.array(z.object({ code: CatalogueCodeSchema, name: z.string() })),
   /** 0–1, higher is better; see bestMatchScore in the domain. */
   score: z.number(),
 });
@@ -74,6 +73,11 @@ export const SearchResponseSchema = z.object({
     total: z.number().int(),
     serviceType: z.object({ code: CatalogueCodeSchema, name: z.string(), cautions: z.array(CautionCodeSchema) }),
     eligibility: EligibilityResultSchema,
+    /**
+     * The equipment that makes every result a match: what the service and this vehicle require,
+     * which each partner listed holds. The same for all results, so it is sent once.
+     */
+    matchedCapabilities: z.array(z.object({ code: CatalogueCodeSchema, name: z.string() })),
     /** When nothing matched: the nearest partners offering the service whose area does not reach the place. */
     nearestOutside: z.array(NearbyPartnerSchema),
     /** True when this search was recorded as a coverage gap (anonymously). */
