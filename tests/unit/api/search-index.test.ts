@@ -169,7 +169,7 @@ describe('SearchIndex: following the change log', () => {
     }
     expect([...first.partners.keys()].sort()).toEqual(['org-a', 'org-b']);
     expect(first.partners.get('org-a')!.offers.get(SERVICE_TYPE_ID)).toMatchObject({ offerId: 'offer-of-org-a', labourMinor: 4500 });
-    const bands = [...first.byService.get(SERVICE_TYPE_ID)!.values()].flat();
+    const bands = [...first.byService.get(SERVICE_TYPE_ID)!.values()].flatMap((b) => b.partners);
     expect(bands.map((p) => p.partnerId).sort()).toEqual(['org-a', 'org-b']);
 
     for (let i = 0; i < 3; i++) {
@@ -206,7 +206,7 @@ describe('SearchIndex: following the change log', () => {
     const third = await current();
     expect(reloaded(db.take())).toEqual(['org-a']);
     expect([...third.partners.keys()]).toEqual(['org-b']);
-    expect([...third.byService.get(SERVICE_TYPE_ID)!.values()].flat().map((p) => p.partnerId)).toEqual(['org-b']);
+    expect([...third.byService.get(SERVICE_TYPE_ID)!.values()].flatMap((b) => b.partners).map((p) => p.partnerId)).toEqual(['org-b']);
     expect(index.stats).toEqual({ fullLoads: 1, organisationsReloaded: 2 });
 
     expect(await current()).toBe(third);

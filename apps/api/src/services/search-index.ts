@@ -36,23 +36,49 @@ export interface IndexedPartner {
   offers: ReadonlyMap<number, IndexedOffer>;
 }
 
+/**
+ * The partners of one latitude band offering one service, in order of longitude, with what the
+ * search's scan reads kept in flat arrays beside them (so a scan over a few hundred bases reads
+ * contiguous memory and touches a partner's object only when it is in reach).
+ */
+export interface Band {
+  partners: readonly IndexedPartner[];
+  lats: Float64Array;
+  lngs: Float64Array;
+  /** How far the partner comes to a customer, km; −1 when it does not (workshop only, or no radius). */
+  comesKm: Float64Array;
+  /** 1 when the partner has a workshop owners may come to. */
+  hosts: Uint8Array;
+}
+
 /** One state of the index: replaced whole on a reload, never changed, so a search holding it sees one consistent network. */
 export interface SearchIndexSnapshot {
   partners: ReadonlyMap<string, IndexedPartner>;
-  /** Per service type id, the partners offering it by latitude band, each band in order of longitude. */
-  byService: ReadonlyMap<number, ReadonlyMap<number, readonly IndexedPartner[]>>;
+  /** Per service type id, the partners offering it by latitude band. */
+  byService: ReadonlyMap<number, ReadonlyMap<number, Band>>;
 }
 
-/** Index of the first partner of a band (in order of longitude) at or east of `lng`. */
-export function firstAtOrEastOf(band: readonly IndexedPartner[], lng: number): number {
+/** Index of the first entry of ascending `lngs` at or east of `lng`. */
+export function firstAtOrEastOf(lngs: Float64Array, lng: number): number {
   let lo = 0;
-  let hi = band.length;
+  let hi = lngs.length;
   while (lo < hi) {
     const mid = (lo + hi) >>> 1;
-    if (band[mid]!.base.lng < lng) lo = mid + 1;
+    if (lngs[mid]! < lng) lo = mid + 1;
     else hi = mid;
   }
   return lo;
+}
+
+function bandOf(partners: IndexedPartner[]): Band {
+  partners.sort((a, b) => a.base.lng - b.base.lng);
+  return {
+    partners,
+    lats: Float64Array.from(partners, (p) => p.base.lat),
+    lngs: Float64Array.from(partners, (p) => p.base.lng),
+    comesKm: Float64Array.from(partners, (p) => (p.mode !== 'workshop' && p.radiusKm !== null ? p.radiusKm : -1)),
+    hosts: Uint8Array.from(partners, (p) => (p.mode !== 'mobile' ? 1 : 0)),
+  };
 }
 
 /**
@@ -191,8 +217,9 @@ export function snapshotOf(partners: Map<string, IndexedPartner>): SearchIndexSn
       else bands.set(p.band, [p]);
     }
   }
-  for (const bands of byService.values()) for (const list of bands.values()) list.sort((a, b) => a.base.lng - b.base.lng);
-  return { partners, byService };
+  const banded = new Map<number, Map<number, Band>>();
+  for (const [serviceTypeId, bands] of byService) banded.set(serviceTypeId, new Map([...bands].map(([band, list]) => [band, bandOf(list)])));
+  return { partners, byService: banded };
 }
 
 /**

@@ -116,17 +116,20 @@ export function candidatesOf(index: SearchIndexSnapshot, serviceTypeId: number, 
   const candidates: Candidate[] = [];
   // the box's longitudes as ranges (two when it crosses the antimeridian)
   const ranges: [number, number][] = box.west <= box.east ? [[box.west, box.east]] : [[box.west, 180], [-180, box.east]];
-  for (const band of latitudeBands(box)) {
-    const partners = bands.get(band);
-    if (!partners) continue;
+  const at = { lat: 0, lng: 0 };
+  for (const bandNo of latitudeBands(box)) {
+    const band = bands.get(bandNo);
+    if (!band) continue;
+    const { lats, lngs, comesKm, hosts } = band;
     for (const [west, east] of ranges) {
-      for (let i = firstAtOrEastOf(partners, west); i < partners.length && partners[i]!.base.lng <= east; i++) {
-        const p = partners[i]!;
-        if (p.base.lat < box.south || p.base.lat > box.north) continue;
-        const straightKm = greatCircleDistanceM(p.base, place) / 1000;
-        const comes = p.mode !== 'workshop' && p.radiusKm !== null && straightKm <= p.radiusKm;
-        const hosts = p.mode !== 'mobile' && straightKm <= ownerRadiusKm;
-        if (!(comes || hosts)) continue;
+      for (let i = firstAtOrEastOf(lngs, west); i < lngs.length && lngs[i]! <= east; i++) {
+        at.lat = lats[i]!;
+        if (at.lat < box.south || at.lat > box.north) continue;
+        at.lng = lngs[i]!;
+        const straightKm = greatCircleDistanceM(at, place) / 1000;
+        // in reach in some mode: the place inside its radius, or its workshop inside the owner's
+        if (!(straightKm <= comesKm[i]! || (hosts[i] === 1 && straightKm <= ownerRadiusKm))) continue;
+        const p = band.partners[i]!;
         let holdsAll = true;
         for (const id of capabilityIds) if (!p.capabilityIds.has(id)) holdsAll = false;
         if (!holdsAll) continue;
@@ -174,7 +177,7 @@ export function nearestOffering(index: SearchIndexSnapshot, serviceTypeId: numbe
   for (let k = 0; k <= reach; k++) {
     if (best.length === NEAREST_COUNT && (k - 1) * KM_PER_BAND > best[NEAREST_COUNT - 1]!.km) break;
     for (const band of k ? [home - k, home + k] : [home]) {
-      for (const p of bands.get(band) ?? []) {
+      for (const p of bands.get(band)?.partners ?? []) {
         if (exclude.has(p.partnerId)) continue;
         best.push({ p, km: greatCircleDistanceM(p.base, place) / 1000 });
         best.sort(before);
