@@ -247,6 +247,23 @@ describe('slot engine properties (fast-check, oracle: IANA tz database via Intl)
     );
   }, TIMEOUT);
 
+  it('gives the same slots for a working-hours object used before, for other days and places, as for a fresh copy of it', () => {
+    fc.assert(
+      fc.property(queries, queries, (q1, q2) => {
+        // q2 with q1's hours object, after q1 has run with it (the engine keeps windows per hours object)
+        const shared = q1.technicians[0]!.hours;
+        computeSlots(q1);
+        const reused = computeSlots({ ...q2, technicians: [{ ...q2.technicians[0]!, hours: shared }] });
+        const fresh = computeSlots({ ...q2, technicians: [{ ...q2.technicians[0]!, hours: structuredClone(shared) }] });
+        expect(reused).toEqual(fresh);
+        // and the same days again, at another place
+        const again = computeSlots({ ...q1, customer: q2.customer });
+        expect(again).toEqual(computeSlots({ ...q1, customer: q2.customer, technicians: [{ ...q1.technicians[0]!, hours: structuredClone(shared) }] }));
+      }),
+      { numRuns: RUNS },
+    );
+  }, TIMEOUT);
+
   it('the organisation view is the union of the technicians, each start naming exactly those free for it', () => {
     fc.assert(
       fc.property(queries, queries, (q1, q2) => {

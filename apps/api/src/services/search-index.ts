@@ -56,6 +56,8 @@ export interface SearchIndexSnapshot {
   partners: ReadonlyMap<string, IndexedPartner>;
   /** Per service type id, the partners offering it by latitude band. */
   byService: ReadonlyMap<number, ReadonlyMap<number, Band>>;
+  /** Per service type id, the largest radius any partner offering it comes within, km. */
+  maxComesKm: ReadonlyMap<number, number>;
 }
 
 /** Index of the first entry of ascending `lngs` at or east of `lng`. */
@@ -218,8 +220,14 @@ export function snapshotOf(partners: Map<string, IndexedPartner>): SearchIndexSn
     }
   }
   const banded = new Map<number, Map<number, Band>>();
-  for (const [serviceTypeId, bands] of byService) banded.set(serviceTypeId, new Map([...bands].map(([band, list]) => [band, bandOf(list)])));
-  return { partners, byService: banded };
+  const maxComesKm = new Map<number, number>();
+  for (const [serviceTypeId, bands] of byService) {
+    banded.set(serviceTypeId, new Map([...bands].map(([band, list]) => [band, bandOf(list)])));
+    let max = 0;
+    for (const band of banded.get(serviceTypeId)!.values()) for (const km of band.comesKm) if (km > max) max = km;
+    maxComesKm.set(serviceTypeId, max);
+  }
+  return { partners, byService: banded, maxComesKm };
 }
 
 /**

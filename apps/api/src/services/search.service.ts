@@ -112,7 +112,10 @@ const roundKm = (km: number) => Math.round(km * 10) / 10;
 export function candidatesOf(index: SearchIndexSnapshot, serviceTypeId: number, capabilityIds: number[], place: GeoPoint, ownerRadiusKm: number): Candidate[] {
   const bands = index.byService.get(serviceTypeId);
   if (!bands) return [];
-  const box = boundingBox(place, MAX_SEARCH_RADIUS_KM * 1000);
+  // nobody further than the largest radius a partner comes within, or the owner's, can be in
+  // reach: the box of that (at most MAX_SEARCH_RADIUS_KM) holds every candidate
+  const reachKm = Math.min(MAX_SEARCH_RADIUS_KM, Math.max(index.maxComesKm.get(serviceTypeId) ?? 0, ownerRadiusKm));
+  const box = boundingBox(place, reachKm * 1000);
   const candidates: Candidate[] = [];
   // the box's longitudes as ranges (two when it crosses the antimeridian)
   const ranges: [number, number][] = box.west <= box.east ? [[box.west, box.east]] : [[box.west, 180], [-180, box.east]];

@@ -176,7 +176,7 @@ function technicianSlots(technician: SlotTechnician, context: Context): { slots:
   const latestStart = Math.min(horizonEnd, calendar.searchEnd) - 1;
   if (latestStart < earliestStart) return { slots: [], startsMs: [] };
 
-  const { windows, dayFirstStarts } = workingWindows(hours, calendar);
+  const { windows, dayFirstStarts } = cachedWorkingWindows(hours, calendar);
   const ranges = startRanges(windows, context.durationMs, earliestStart, latestStart);
   if (ranges.length === 0) return { slots: [], startsMs: [] };
   const blocked = blockedStarts(technician, dayFirstStarts, context, earliestStart, latestStart);
@@ -195,6 +195,30 @@ function weeklyMinutes(hours: WorkingHours): Record<Weekday, ReadonlyArray<reado
     weeklyMinutesCache.set(hours, weekly);
   }
   return weekly;
+}
+
+/**
+ * Working windows by hours object and searched days. They depend on nothing else (the zone's
+ * offsets are fixed data), so every search of the same days reuses them: the slot search of a
+ * day asks for the same technicians' windows over and over, and only what depends on the
+ * customer (travel, bookings) differs. Like the weekly intervals, this assumes a WorkingHours
+ * object is not changed once made (callers parse new ones).
+ */
+const windowsCache = new WeakMap<WorkingHours, Map<string, { windows: Span[]; dayFirstStarts: number[] }>>();
+/** Searched-day spans kept per hours object (a few "today" searches of different lengths a day). */
+const WINDOWS_PER_HOURS = 8;
+
+function cachedWorkingWindows(hours: WorkingHours, calendar: ZoneCalendar): { windows: Span[]; dayFirstStarts: number[] } {
+  const key = `${calendar.days[0]!.date}|${calendar.days.length}`;
+  let byDays = windowsCache.get(hours);
+  if (!byDays) windowsCache.set(hours, (byDays = new Map()));
+  let found = byDays.get(key);
+  if (!found) {
+    found = workingWindows(hours, calendar);
+    if (byDays.size >= WINDOWS_PER_HOURS) byDays.delete(byDays.keys().next().value!);
+    byDays.set(key, found);
+  }
+  return found;
 }
 
 /** Working time as instants, exceptions applied, merged; and the first working instant of each day. */
