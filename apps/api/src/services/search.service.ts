@@ -246,9 +246,10 @@ export async function search(ctx: ServiceContext, q: SearchQuery, now: Date): Pr
     const covering = new Set<string>();
     let matches: Match[] = [];
     for (const c of candidates) {
-      if (!placeJob(c, place, 'any', q.radiusKm)) continue;
+      const anywhere = placeJob(c, place, 'any', q.radiusKm);
+      if (!anywhere) continue;
       covering.add(c.partnerId);
-      const placement = placeJob(c, place, q.mode, q.radiusKm);
+      const placement = q.mode === 'any' ? anywhere : placeJob(c, place, q.mode, q.radiusKm);
       if (!placement) continue;
       const totalMinor = c.labourMinor + c.partsMinor + placement.travelFeeMinor;
       if (q.maxPriceMinor !== undefined && (c.currency !== q.currency || totalMinor > q.maxPriceMinor)) continue;
