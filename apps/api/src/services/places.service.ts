@@ -4,6 +4,7 @@
 import { Worker } from 'node:worker_threads';
 import type { Place } from '@emberline/domain';
 import { normalisePlaceName, type PlaceIndex } from './places-index';
+import { lowerBound } from '../lib/sorted';
 
 let loading: Promise<PlaceIndex> | null = null;
 
@@ -22,18 +23,6 @@ export function loadPlaces(): Promise<PlaceIndex> {
     throw err;
   });
   return loading;
-}
-
-/** First position in the sorted keys not before `prefix`. */
-function lowerBound(keys: string[], prefix: string): number {
-  let lo = 0;
-  let hi = keys.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >>> 1;
-    if (keys[mid]! < prefix) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
 }
 
 /**

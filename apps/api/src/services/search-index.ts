@@ -60,18 +60,6 @@ export interface SearchIndexSnapshot {
   maxComesKm: ReadonlyMap<number, number>;
 }
 
-/** Index of the first entry of ascending `lngs` at or east of `lng`. */
-export function firstAtOrEastOf(lngs: Float64Array, lng: number): number {
-  let lo = 0;
-  let hi = lngs.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >>> 1;
-    if (lngs[mid]! < lng) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
-}
-
 function bandOf(partners: IndexedPartner[]): Band {
   partners.sort((a, b) => a.base.lng - b.base.lng);
   return {

@@ -28,9 +28,10 @@ import {
 import type { ServiceContext } from '../lib/context';
 import { ValidationFailed } from '../lib/errors';
 import { LATITUDE_BANDS_PER_DEGREE, latitudeBands } from '../lib/sql-geo';
+import { lowerBound } from '../lib/sorted';
 import { recordGap } from './coverage.service';
 import { searchCatalogue } from './search-catalogue';
-import { firstAtOrEastOf, searchIndexFor, type IndexedOffer, type LogState, type SearchIndexCheck, type SearchIndexSnapshot } from './search-index';
+import { searchIndexFor, type IndexedOffer, type LogState, type SearchIndexCheck, type SearchIndexSnapshot } from './search-index';
 import { firstSlots, type FirstSlot, type SlotJob } from './slots.service';
 import { occupiedTimesWith, slotWindow } from './occupied-times';
 
@@ -125,7 +126,7 @@ export function candidatesOf(index: SearchIndexSnapshot, serviceTypeId: number, 
     if (!band) continue;
     const { lats, lngs, comesKm, hosts } = band;
     for (const [west, east] of ranges) {
-      for (let i = firstAtOrEastOf(lngs, west); i < lngs.length && lngs[i]! <= east; i++) {
+      for (let i = lowerBound(lngs, west); i < lngs.length && lngs[i]! <= east; i++) {
         at.lat = lats[i]!;
         if (at.lat < box.south || at.lat > box.north) continue;
         at.lng = lngs[i]!;
