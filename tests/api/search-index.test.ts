@@ -25,8 +25,8 @@ const POLICY = { freeWithinKm: 10, ratePerKmMinor: 90, currency: 'EUR', maxDista
 type Result = { partnerId: string; labourMinor: number; partsMinor: number; travelFeeMinor: number; totalMinor: number; nextSlot: { start: string } | null };
 
 /** An approved mobile partner with one technician on a handset-pairing offer (45.00 EUR, two 15.00 EUR parts), hours every day and a travel policy, set up through app A. */
-async function searchablePartner() {
-  const p = await approvedPartner(a.app, a.dataSource, { technician: true, area: { baseLabel: 'Oulu', baseLat: OULU.lat, baseLng: OULU.lng, mode: 'mobile', radiusKm: 60, workshopAddress: null } });
+async function searchablePartner(base = { ...OULU, label: 'Oulu' }) {
+  const p = await approvedPartner(a.app, a.dataSource, { technician: true, area: { baseLabel: base.label, baseLat: base.lat, baseLng: base.lng, mode: 'mobile', radiusKm: 60, workshopAddress: null } });
   const technicianId = p.technician!.userId;
   const org = `/api/orgs/${p.orgId}`;
   const post = (path: string, body: object) => request(a.app).post(`${org}${path}`).set(bearer(p.admin)).send(body).expect(201);
@@ -124,6 +124,18 @@ describe('the search index of another instance', () => {
     expect(await resultOn(b, p)).toBeUndefined();
     await decide({ decision: 'reinstate' });
     expect(await resultOn(b, p)).toMatchObject({ labourMinor: 4500, partsMinor: 3000 });
+  });
+
+  it('answers 0 results and a total of 0 when the only partner there was suspended since B last looked', async () => {
+    // Rovaniemi is 165 km from Oulu, out of reach of the other tests' partners
+    const p = await searchablePartner({ lat: 66.5039, lng: 25.7294, label: 'Rovaniemi' });
+    const near = () => request(b.app).get('/api/search').query({ serviceType: 'handset-pairing', lat: 66.55, lng: 25.75, mode: 'mobile' }).expect(200);
+    expect((await near()).body).toMatchObject({ data: [{ partnerId: p.orgId }], meta: { total: 1 } });
+    await request(a.app).post(`/api/admin/applications/${p.orgId}/decision`).set(bearer(p.networkAdmin)).send({ decision: 'suspend', message: 'Checking a complaint' }).expect(200);
+    // B's first attempt still counts the partner, finds its index behind, and searches again
+    const res = await near();
+    expect(res.body.data).toEqual([]);
+    expect(res.body.meta.total).toBe(0);
   });
 
   it('drops a partner whose required capability is deleted by SQL', async () => {
