@@ -1,5 +1,5 @@
 #!/usr/bin/env node
-// Entry for `npm start|test|dev|bench|migrate|seed`: installs npm packages when they are missing
+// Entry for `npm start|test|dev|bench|migrate|seed|db:backup|db:restore`: installs npm packages when they are missing
 // or stale (plain JavaScript because TypeScript tooling may not be installed yet), then hands
 // over to the TypeScript script of the same name.
 import { spawn, spawnSync } from 'node:child_process';
@@ -9,7 +9,7 @@ import { fileURLToPath } from 'node:url';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const command = process.argv[2];
-const scripts = { start: 'start.ts', test: 'test.ts', dev: 'dev.ts', bench: 'bench.ts', migrate: 'db.ts', seed: 'db.ts', 'admin:create': 'admin-create.ts' };
+const scripts = { start: 'start.ts', test: 'test.ts', dev: 'dev.ts', bench: 'bench.ts', migrate: 'db.ts', seed: 'db.ts', 'admin:create': 'admin-create.ts', 'db:backup': 'backup.ts', 'db:restore': 'backup.ts' };
 if (!scripts[command]) {
   console.error(`Unknown command "${command}". Use one of: ${Object.keys(scripts).join(', ')}`);
   process.exit(2);
