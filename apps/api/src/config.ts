@@ -1,4 +1,5 @@
 // Reads the environment once, checks it with zod and exposes a frozen, typed configuration.
+import { isIP, isIPv4 } from 'node:net';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { z } from 'zod';
@@ -13,9 +14,63 @@ const port = (fallback: number) => z.coerce.number().int().min(1).max(65535).def
 const flag = (fallback: boolean) =>
   z.enum(['true', 'false', '1', '0']).default(fallback ? 'true' : 'false').transform((v) => v === 'true' || v === '1');
 
+/** The subnets Express's 'trust proxy' knows by name (proxy-addr). */
+const NAMED_SUBNETS = ['loopback', 'linklocal', 'uniquelocal'];
+
+/** An address, a subnet (`10.0.0.0/8`, `fd00::/8`, `10.0.0.0/255.0.0.0`) or a named subnet. */
+function isProxyEntry(entry: string): boolean {
+  if (NAMED_SUBNETS.includes(entry)) return true;
+  const [address = '', range, extra] = entry.split('/');
+  const family = isIP(address);
+  if (!family || extra !== undefined) return false;
+  if (range === undefined) return true;
+  if (/^\d{1,3}$/.test(range)) return Number(range) <= (family === 4 ? 32 : 128);
+  return family === 4 && isIPv4(range);
+}
+
+/**
+ * Which proxies may say who the client is (X-Forwarded-For, -Proto): `false`, a hop count, or
+ * their addresses and subnets. `true` would trust every hop, so any client could name its own
+ * address and walk past the per-address rate limits: refused, with the way out in the message.
+ */
+const trustProxy = z
+  .string()
+  .trim()
+  .default('false')
+  .transform((value, ctx): false | number | string[] => {
+    if (value === '' || value === 'false') return false;
+    if (value === 'true') {
+      ctx.addIssue({
+        code: 'custom',
+        message: 'true would trust every hop, so any client could claim any address: give the number of proxies in front of the API (e.g. 1) or their addresses or subnets, comma-separated (e.g. 10.0.0.0/8,loopback)',
+      });
+      return z.NEVER;
+    }
+    if (/^\d+$/.test(value)) {
+      const hops = Number(value);
+      if (hops > 16) ctx.addIssue({ code: 'custom', message: 'a hop count is at most 16 (the proxies in front of the API)' });
+      return hops === 0 ? false : hops;
+    }
+    const entries = value.split(',').map((e) => e.trim());
+    const bad = entries.filter((e) => !isProxyEntry(e));
+    if (bad.length) {
+      ctx.addIssue({ code: 'custom', message: `not a hop count, address or subnet: ${bad.map((b) => JSON.stringify(b)).join(', ')} (e.g. 1, or 10.0.0.0/8,loopback)` });
+    }
+    return entries;
+  });
+
+/** SEED_DEMO: `auto` seeds the demo scenario outside production only, `false` never, `force` in production too. */
+export const SEED_DEMO_MODES = ['auto', 'false', 'force'] as const;
+export type SeedDemoMode = (typeof SEED_DEMO_MODES)[number];
+const nodeEnv = z.enum(['development', 'production', 'test']).default('development');
+const seedDemo = z.enum(SEED_DEMO_MODES).default('auto');
+
+/** What the seed needs to know, for scripts that seed without the API's whole configuration. */
+export const SeedEnvSchema = z.object({ NODE_ENV: nodeEnv, SEED_DEMO: seedDemo });
+
 /** Every variable is documented with its default in .env.example. */
 export const EnvSchema = z.object({
-  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  NODE_ENV: nodeEnv,
   HOST: z.string().min(1).default('127.0.0.1'),
   PORT: port(4000),
   PUBLIC_URL: z.url().optional(),
@@ -28,7 +83,7 @@ export const EnvSchema = z.object({
   DB_POOL_SIZE: z.coerce.number().int().min(1).max(200).default(10),
   SERVE_APPS: flag(true),
   APPS_DIR: z.string().default('dist').transform((dir) => path.resolve(projectRoot, dir)),
-  TRUST_PROXY: flag(false),
+  TRUST_PROXY: trustProxy,
   /** Signs access tokens (HS256). Required in production; in development generated once into var/. */
   JWT_SECRET: z.string().min(32, 'must be at least 32 characters').optional(),
   ACCESS_TOKEN_TTL_SECONDS: z.coerce.number().int().min(60).max(3600).default(900),
@@ -56,6 +111,8 @@ export const EnvSchema = z.object({
   STRIPE_API_BASE: z.url({ protocol: /^https?$/, error: 'must be an http:// or https:// URL' }).optional(),
   /** Port of the local payments fake (development and tests), which STRIPE_API_BASE points at when unset. */
   PAYMENTS_FAKE_PORT: port(4030),
+  /** Whether the seed adds the demo scenario, whose published password signs in a network admin. */
+  SEED_DEMO: seedDemo,
 }).superRefine((c, ctx) => {
   if (c.NODE_ENV === 'production' && !c.JWT_SECRET) ctx.addIssue({ code: 'custom', path: ['JWT_SECRET'], message: 'is required in production' });
   // the local fake's credentials work nowhere else
