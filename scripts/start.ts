@@ -1,13 +1,14 @@
 // `npm start`: installs what is missing, starts MariaDB, migrates and seeds, builds the apps,
-// starts the API (which serves the apps) and prints where everything is. Ctrl-C stops it all.
+// starts the API (which serves the apps) and prints where everything is; MariaDB is restarted
+// with backoff if it dies meanwhile. Ctrl-C stops it all.
 import { spawn, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
 import { migrateAndSeed } from '../apps/api/src/db/migrate';
 import { loadConfig, ConfigError } from '../apps/api/src/config';
 import { buildApps } from './lib/build';
-import { ensureDatabase, startMariaDb, type MariaDbInstance } from './lib/mariadb';
+import { ensureDatabase, startMariaDb, superviseMariaDb, type MariaDbInstance, type Supervisor, type SupervisorEvent } from './lib/mariadb';
 import { portInUse, waitForHttp } from './lib/net';
-import { failAndExit, ok, step } from './lib/output';
+import { failAndExit, ok, step, warn } from './lib/output';
 import { dbEnv, devDatabase, localSecret, root } from './lib/project';
 import { ensureSystemPackages, MARIADB } from './lib/system';
 import { DEMO_NETWORK_ADMINS, DEMO_ORGANISATIONS, DEMO_OWNERS, DEMO_PASSWORD } from '../apps/api/src/db/seed/demo-data';
@@ -23,6 +24,7 @@ function demoSignIns(): string {
 
 const t0 = performance.now();
 let db: MariaDbInstance | undefined;
+let dbSupervisor: Supervisor | undefined;
 let mail: ChildProcess | undefined;
 let payments: ChildProcess | undefined;
 const MAIL_SMTP_PORT = Number(process.env.MAIL_CAPTURE_SMTP_PORT ?? 2525);
@@ -50,7 +52,19 @@ function startChild(name: string, args: string[], env: NodeJS.ProcessEnv, ready:
   });
 }
 
+/** What the MariaDB supervisor does, told to the person running `npm start`. */
+function reportDb(e: SupervisorEvent): void {
+  const s = (ms: number) => `${(ms / 1000).toFixed(1)} s`;
+  if (e.type === 'died') warn(`MariaDB (pid ${e.pid}) stopped unexpectedly after ${s(e.uptimeMs)}; the API answers 503 until it is back.`);
+  else if (e.type === 'restarting') step(`Starting MariaDB again in ${s(e.delayMs)} (attempt ${e.attempt})…`);
+  else if (e.type === 'restarted') ok(`MariaDB restarted (pid ${e.pid}) after ${s(e.downMs)} down; the API reconnects by itself`);
+  else if (e.type === 'restart-failed') warn(`MariaDB did not start again: ${e.error.message.split('\n')[0]}`);
+  else console.error(`\n✖ MariaDB failed ${e.failures} times in a row; giving up.${e.error ? `\n${e.error.message}` : ''}\n`);
+}
+
 async function shutdown(code: number): Promise<never> {
+  // first, so that stopping MariaDB below is not taken for a crash
+  await dbSupervisor?.stop();
   for (const child of [mail, payments]) {
     if (child && child.exitCode === null) {
       child.kill('SIGTERM');
@@ -93,6 +107,11 @@ try {
   const report = await migrateAndSeed(config, { bcryptCost: config.BCRYPT_COST });
   const seeded = report.seed;
   ok(`Database ready: ${report.migrationsRun.length} migration(s) run; seed added ${seeded?.capabilitiesAdded ?? 0} capabilities, ${seeded?.serviceTypesAdded ?? 0} service types, ${seeded?.organisationsAdded ?? 0} organisations, ${seeded?.usersAdded ?? 0} people`);
+  // watches the server by its pid and starts it again on the same data directory and port
+  dbSupervisor = superviseMariaDb(db, { onEvent: reportDb, onRestart: (next) => (db = next) });
+  void dbSupervisor.done.then((how) => {
+    if (how === 'gave-up') void shutdown(1);
+  });
 
   buildApps();
 

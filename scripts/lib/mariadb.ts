@@ -173,3 +173,138 @@ export function ensureDatabase(db: MariaDbInstance, o: { name: string; user: str
   ];
   rootSql(db, statements.join('\n'));
 }
+
+export type SupervisorEvent =
+  | { type: 'died'; pid: number; uptimeMs: number }
+  | { type: 'restarting'; attempt: number; delayMs: number }
+  | { type: 'restarted'; pid: number; downMs: number }
+  | { type: 'restart-failed'; attempt: number; error: Error }
+  | { type: 'gave-up'; failures: number; error: Error | null };
+
+export interface SupervisorOptions {
+  /** The pid this supervisor watches first: the server the caller started. */
+  pid: number;
+  /** Starts the server again; resolves with the new pid (rejects when it cannot start). */
+  restart(): Promise<number>;
+  isAlive?(pid: number): boolean;
+  /** Waits before each restart, growing with the failures in a row; the last entry repeats. */
+  backoffMs?: readonly number[];
+  checkEveryMs?: number;
+  /** A server that stays up this long resets the backoff; one that dies sooner counts as a failure. */
+  stableMs?: number;
+  /** Failures in a row (failed starts or quick deaths) after which the supervisor gives up. */
+  maxFailures?: number;
+  onEvent?(event: SupervisorEvent): void;
+  now?(): number;
+}
+
+export interface Supervisor {
+  /** The pid watched now (changes with each restart). */
+  readonly pid: number;
+  readonly restarts: number;
+  /** Resolves when the supervisor stops: `stop()` or giving up. */
+  readonly done: Promise<'stopped' | 'gave-up'>;
+  /** Stops watching (before the caller stops the server itself, so it is not started again). */
+  stop(): Promise<void>;
+}
+
+export const SUPERVISOR_BACKOFF_MS = [500, 1000, 2000, 5000, 10_000, 30_000] as const;
+
+/**
+ * Watches a process by its pid and starts it again when it dies, waiting longer after each failure
+ * in a row. It never signals anything itself: it only checks the pid it was given or started.
+ */
+export function superviseProcess(o: SupervisorOptions): Supervisor {
+  const isAlive = o.isAlive ?? alive;
+  const backoff = o.backoffMs ?? SUPERVISOR_BACKOFF_MS;
+  const checkEvery = o.checkEveryMs ?? 1000;
+  const stableMs = o.stableMs ?? 60_000;
+  const maxFailures = o.maxFailures ?? 6;
+  const now = o.now ?? Date.now;
+  const emit = (e: SupervisorEvent) => o.onEvent?.(e);
+  let pid = o.pid;
+  let restarts = 0;
+  let stopped = false;
+  let wake: (() => void) | null = null;
+  const sleep = (ms: number) =>
+    new Promise<void>((resolve) => {
+      const timer = setTimeout(() => {
+        wake = null;
+        resolve();
+      }, ms);
+      wake = () => {
+        clearTimeout(timer);
+        wake = null;
+        resolve();
+      };
+    });
+
+  async function loop(): Promise<'stopped' | 'gave-up'> {
+    let failures = 0;
+    let upSince = now();
+    while (!stopped) {
+      await sleep(checkEvery);
+      if (stopped) break;
+      if (isAlive(pid)) {
+        if (now() - upSince >= stableMs) failures = 0;
+        continue;
+      }
+      const diedAt = now();
+      emit({ type: 'died', pid, uptimeMs: diedAt - upSince });
+      // a server that keeps dying soon after its start is failing, not just unlucky
+      if (diedAt - upSince < stableMs && restarts > 0) failures += 1;
+      let lastError: Error | null = null;
+      while (!stopped) {
+        if (failures >= maxFailures) {
+          emit({ type: 'gave-up', failures, error: lastError });
+          return 'gave-up';
+        }
+        const delayMs = backoff[Math.min(failures, backoff.length - 1)]!;
+        emit({ type: 'restarting', attempt: failures + 1, delayMs });
+        await sleep(delayMs);
+        if (stopped) break;
+        try {
+          pid = await o.restart();
+          restarts += 1;
+          upSince = now();
+          emit({ type: 'restarted', pid, downMs: upSince - diedAt });
+          break;
+        } catch (err) {
+          lastError = err as Error;
+          failures += 1;
+          emit({ type: 'restart-failed', attempt: failures, error: lastError });
+        }
+      }
+    }
+    return 'stopped';
+  }
+
+  const done = loop();
+  return {
+    get pid() {
+      return pid;
+    },
+    get restarts() {
+      return restarts;
+    },
+    done,
+    async stop() {
+      stopped = true;
+      wake?.();
+      await done;
+    },
+  };
+}
+
+/** Keeps the project's MariaDB for `dir` running: started again on the same data directory and port. */
+export function superviseMariaDb(db: MariaDbInstance, o: Omit<SupervisorOptions, 'pid' | 'restart'> & { onRestart?(db: MariaDbInstance): void } = {}): Supervisor {
+  return superviseProcess({
+    ...o,
+    pid: db.pid,
+    restart: async () => {
+      const next = await startMariaDb(db.dir, db.port);
+      o.onRestart?.(next);
+      return next.pid;
+    },
+  });
+}
