@@ -72,11 +72,17 @@ function serveApps(app: Express, appsDir: string): void {
     });
     return;
   }
-  app.use('/assets', express.static(path.join(appsDir, 'assets'), { immutable: true, maxAge: '1y', fallthrough: false }));
+  // a missing or malformed asset name is a plain 404: the file system's error names server paths
+  const notFound: express.RequestHandler = (_req, res) => {
+    res.status(404).type('text/plain').send('Not found');
+  };
+  app.use('/assets', express.static(path.join(appsDir, 'assets'), { immutable: true, maxAge: '1y' }), notFound);
   app.use(express.static(appsDir, { index: false, maxAge: '1h' }));
   const spa = (file: string): express.RequestHandler => (req, res, next) => {
     if (req.method !== 'GET' && req.method !== 'HEAD') return next();
-    res.set('cache-control', 'no-cache').sendFile(file);
+    res.set('cache-control', 'no-cache').sendFile(file, (err) => {
+      if (err && !res.headersSent) notFound(req, res, next);
+    });
   };
   app.get(/^\/console(\/.*)?$/, spa(consoleHtml));
   app.get(/^\/(?!api(\/|$)).*/, spa(directoryHtml));

@@ -1,5 +1,6 @@
 // Public surface of the pure domain package: schemas and computations, no I/O.
 export * from './schemas/problem';
+export * from './schemas/query';
 export * from './schemas/catalogue';
 export * from './schemas/health';
 export * from './heater';

@@ -8,7 +8,7 @@ type RequestBody = NonNullable<RouteConfig['request']>['body'];
 import { z } from 'zod';
 import { ProblemDetailsSchema, type FieldError } from '@emberline/domain';
 import type { Role } from '@emberline/domain';
-import { HttpError, PayloadTooLarge, ValidationFailed } from './errors';
+import { HttpError, PayloadTooLarge, UnsupportedMediaType, ValidationFailed } from './errors';
 import { ANONYMOUS, type Actor } from './context';
 import type { Guards } from '../middleware/auth';
 
@@ -65,6 +65,46 @@ export function toFieldErrors(error: z.ZodError, prefix?: string): FieldError[] 
   }));
 }
 
+// a high surrogate not followed by a low one, or a low one not preceded by a high one
+const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+const MAX_TEXT_ERRORS = 20;
+
+/**
+ * Field errors for every string (value or key) holding a lone UTF-16 surrogate. JSON can carry
+ * one ("\ud800") but UTF-8 cannot: stored, it would be mangled or fail the database's JSON check.
+ * Walks without recursion, so a deeply nested body cannot overflow the stack.
+ */
+export function malformedTextErrors(value: unknown, prefix?: string): FieldError[] {
+  const errors: FieldError[] = [];
+  const stack: Array<[unknown, string[]]> = [[value, prefix ? [prefix] : []]];
+  while (stack.length && errors.length < MAX_TEXT_ERRORS) {
+    const [item, path] = stack.pop()!;
+    if (typeof item === 'string') {
+      if (LONE_SURROGATE.test(item)) errors.push({ path: path.join('.'), message: 'This text contains an invalid character (a lone UTF-16 surrogate)' });
+    } else if (item && typeof item === 'object') {
+      for (const [key, child] of Object.entries(item)) {
+        if (LONE_SURROGATE.test(key)) errors.push({ path: path.join('.'), message: 'A field name contains an invalid character (a lone UTF-16 surrogate)' });
+        else stack.push([child, [...path, key]]);
+      }
+    }
+  }
+  return errors;
+}
+
+/** True when the request carries content (an empty body with Content-Length: 0 does not count). */
+const hasContent = (req: Request) => req.headers['transfer-encoding'] !== undefined || Number(req.headers['content-length']) > 0;
+
+/**
+ * Refuses content of a type the route does not read (415): the JSON parser skips other types,
+ * so JSON sent as text/plain would otherwise be treated as an empty body and succeed.
+ */
+function acceptOnly(type: 'application/json' | 'multipart/form-data'): RequestHandler {
+  return (req, _res, next) => {
+    if (!hasContent(req) || req.is(type)) return next();
+    next(UnsupportedMediaType(`Send the request body as ${type}${req.headers['content-type'] ? `, not ${String(req.headers['content-type']).split(';')[0]}` : ''}.`));
+  };
+}
+
 const problemContent = { 'application/problem+json': { schema: ProblemDetailsSchema } };
 const problemDescriptions: Record<number, string> = {
   400: 'Bad input (problem details with field errors)',
@@ -73,7 +113,7 @@ const problemDescriptions: Record<number, string> = {
   404: 'Not found',
   409: 'Conflict',
   413: 'The upload is too large',
-  415: 'The file type is not accepted',
+  415: 'The body or file type is not accepted',
   429: 'Too many requests',
   500: 'Unexpected error',
   503: 'Temporarily unavailable',
@@ -140,6 +180,9 @@ export class ApiRouter {
         }
         return result.data;
       };
+      // checked before the schemas, so no route can let such text through to the database
+      const textErrors = [...malformedTextErrors(req.params, 'params'), ...malformedTextErrors(req.query, 'query'), ...malformedTextErrors(req.body)];
+      if (textErrors.length) return next(ValidationFailed('Please correct the highlighted fields.', textErrors));
       const params = take(spec.params, req.params, 'params');
       const query = take(spec.query, req.query, 'query');
       const body = take(typeof spec.body === 'function' ? spec.body() : spec.body, req.body, 'body');
@@ -159,6 +202,7 @@ export class ApiRouter {
       ...(needsAuth ? [this.guards.authenticate] : spec.optionalAuth ? [this.guards.optionalAuthenticate] : []),
       ...(spec.org ? [this.guards.orgScope] : []),
       ...(spec.roles ? [this.guards.requireRoles(spec.roles)] : []),
+      acceptOnly(spec.multipart ? 'multipart/form-data' : 'application/json'),
       ...(spec.multipart ? [multipartUpload(spec.multipart)] : []),
     ];
     this.router[spec.method](spec.path, ...chain, validateAndRun);
@@ -167,7 +211,7 @@ export class ApiRouter {
   private document(spec: RouteSpec<AnyObject, AnyObject, z.ZodType, z.ZodType>): void {
     const openApiPath = (this.mountPath + spec.path).replace(/:([A-Za-z0-9_]+)/g, '{$1}');
     const needsAuth = spec.auth || spec.org || !!spec.roles;
-    const problems = new Set([400, 500, ...(needsAuth || spec.optionalAuth ? [401] : []), ...(spec.roles ? [403] : []), ...(spec.org ? [404] : []), ...(spec.before?.length ? [429] : []), ...(spec.multipart ? [413] : []), ...(spec.problems ?? [])]);
+    const problems = new Set([400, 500, ...(needsAuth || spec.optionalAuth ? [401] : []), ...(spec.roles ? [403] : []), ...(spec.org ? [404] : []), ...(spec.before?.length ? [429] : []), ...(spec.multipart ? [413] : []), ...(spec.body || spec.multipart ? [415] : []), ...(spec.problems ?? [])]);
     if (!spec.response && !spec.produces) throw new Error(`${spec.method} ${spec.path} declares neither a response schema nor the files it produces`);
     const success = spec.produces
       ? Object.fromEntries(spec.produces.map((type) => [type, { schema: { type: 'string' as const, format: 'binary' } }]))

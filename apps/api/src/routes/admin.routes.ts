@@ -1,6 +1,6 @@
 // Network-admin routes.
 import { z } from 'zod';
-import { AuditEntrySchema, IdSchema, MAIL_STATUSES, MailLogEntrySchema } from '@emberline/domain';
+import { AuditEntrySchema, IdSchema, MAIL_STATUSES, MailLogEntrySchema, queryNumber } from '@emberline/domain';
 import type { AppContext } from '../app';
 import type { ApiRouter } from '../lib/api-router';
 import { adminController } from '../controllers/admin.controller';
@@ -18,7 +18,7 @@ export function registerAdminRoutes(api: ApiRouter, app: AppContext): void {
       query: z.object({
         status: z.enum(MAIL_STATUSES).optional(),
         to: z.string().max(254).optional(),
-        limit: z.coerce.number().int().min(1).max(500).default(100),
+        limit: queryNumber(z.number().int().min(1).max(500)).default(100),
       }),
       response: z.object({ data: z.array(MailLogEntrySchema) }),
     },
@@ -31,7 +31,7 @@ export function registerAdminRoutes(api: ApiRouter, app: AppContext): void {
       summary: 'Who did what, when, with before and after',
       tags,
       roles: ['network_admin'],
-      query: z.object({ organisationId: IdSchema.optional(), limit: z.coerce.number().int().min(1).max(500).default(100) }),
+      query: z.object({ organisationId: IdSchema.optional(), limit: queryNumber(z.number().int().min(1).max(500)).default(100) }),
       response: z.object({ data: z.array(AuditEntrySchema) }),
     },
     c.listAudit,

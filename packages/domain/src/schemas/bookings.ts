@@ -6,6 +6,7 @@ import { VehicleProfileSchema } from './eligibility';
 import { InstantSchema } from './hours';
 import { CountrySchema, isValidVatId } from './onboarding';
 import { CurrencySchema } from './offers';
+import { queryNumber } from './query';
 
 /** Minutes a slot is held while the owner pays. */
 export const HOLD_MINUTES = 10;
@@ -100,8 +101,8 @@ export const OwnerQuoteSchema = QuoteSchema.omit({ partner: true });
 export const QuotePreviewQuerySchema = VehicleProfileSchema.extend({
   serviceType: CatalogueCodeSchema,
   jobAt: z.enum(['owner', 'workshop']),
-  lat: z.coerce.number().min(-90, 'Latitude is −90 to 90').max(90, 'Latitude is −90 to 90').optional(),
-  lng: z.coerce.number().min(-180, 'Longitude is −180 to 180').max(180, 'Longitude is −180 to 180').optional(),
+  lat: queryNumber(z.number().min(-90, 'Latitude is −90 to 90').max(90, 'Latitude is −90 to 90'), 'Enter a latitude').optional(),
+  lng: queryNumber(z.number().min(-180, 'Longitude is −180 to 180').max(180, 'Longitude is −180 to 180'), 'Enter a longitude').optional(),
   country: CountrySchema.optional().describe('Country of the work place; defaults to the partner\'s'),
   start: InstantSchema.optional().describe('Day of the work for the VAT rate; defaults to today'),
   vatId: z.string().trim().optional().describe('A business customer\'s VAT ID'),
@@ -144,7 +145,7 @@ export const BookingListQuerySchema = z.object({
   to: InstantSchema.optional(),
   technicianId: IdSchema.optional(),
   q: z.string().trim().max(80).optional().describe('Reference, customer name or e-mail'),
-  limit: z.coerce.number().int().min(1).max(500).default(100),
+  limit: queryNumber(z.number().int().min(1).max(500)).default(100),
 });
 
 export const BookingDecisionSchema = z.discriminatedUnion('action', [

@@ -5,6 +5,7 @@ import { HEATER_FUELS } from '../heater/fuels';
 import { CatalogueCodeSchema } from './catalogue';
 import { ClimateControlSchema, FactoryHeaterSchema, FACTORY_HEATERS, CLIMATE_CONTROLS, VEHICLE_LIMITS } from './vehicles';
 import { DURATION_STEP_MINUTES } from './hours';
+import { queryNumber } from './query';
 
 /** What the search needs to know about a vehicle; every field may be left out (unknown). */
 export const VehicleProfileSchema = z.object({
@@ -12,16 +13,15 @@ export const VehicleProfileSchema = z.object({
   fuel: z.enum(HEATER_FUELS, { error: 'Fuel must be diesel or petrol' }).optional(),
   factoryHeater: FactoryHeaterSchema.optional(),
   climateControl: ClimateControlSchema.optional(),
-  electricalSystemV: z.coerce
-    .number({ error: 'The electrical system must be 12 V or 24 V' })
-    .pipe(z.literal([12, 24], { error: 'The electrical system must be 12 V or 24 V' }))
-    .optional(),
-  year: z.coerce
-    .number({ error: 'Enter the year of manufacture' })
-    .int('Enter a whole year')
-    .min(VEHICLE_LIMITS.year.min, `The year must be between ${VEHICLE_LIMITS.year.min} and ${VEHICLE_LIMITS.year.max}`)
-    .max(VEHICLE_LIMITS.year.max, `The year must be between ${VEHICLE_LIMITS.year.min} and ${VEHICLE_LIMITS.year.max}`)
-    .optional(),
+  electricalSystemV: queryNumber(z.literal([12, 24], { error: 'The electrical system must be 12 V or 24 V' }), 'The electrical system must be 12 V or 24 V').optional(),
+  year: queryNumber(
+    z
+      .number({ error: 'Enter the year of manufacture' })
+      .int('Enter a whole year')
+      .min(VEHICLE_LIMITS.year.min, `The year must be between ${VEHICLE_LIMITS.year.min} and ${VEHICLE_LIMITS.year.max}`)
+      .max(VEHICLE_LIMITS.year.max, `The year must be between ${VEHICLE_LIMITS.year.min} and ${VEHICLE_LIMITS.year.max}`),
+    'Enter the year of manufacture',
+  ).optional(),
 });
 export type VehicleProfile = z.output<typeof VehicleProfileSchema>;
 

@@ -6,6 +6,7 @@ import { IdSchema } from './accounts';
 import { CatalogueCodeSchema } from './catalogue';
 import { InstantSchema, JobDurationMinutesSchema, WorkingHoursSchema } from './hours';
 import { AreaStepSchema } from './onboarding';
+import { queryNumber } from './query';
 
 export const CURRENCIES = ['EUR', 'SEK', 'NOK', 'DKK', 'CHF'] as const;
 export const CurrencySchema = z.enum(CURRENCIES, { error: `Choose one of ${CURRENCIES.join(', ')}` });
@@ -181,15 +182,17 @@ export const SLOT_LIST_LIMIT = 50;
 
 export const SlotsQuerySchema = z.object({
   serviceType: CatalogueCodeSchema,
-  lat: z.coerce.number({ error: 'Enter a latitude' }).min(-90, 'Latitude is −90 to 90').max(90, 'Latitude is −90 to 90'),
-  lng: z.coerce.number({ error: 'Enter a longitude' }).min(-180, 'Longitude is −180 to 180').max(180, 'Longitude is −180 to 180'),
+  lat: queryNumber(z.number({ error: 'Enter a latitude' }).min(-90, 'Latitude is −90 to 90').max(90, 'Latitude is −90 to 90'), 'Enter a latitude'),
+  lng: queryNumber(z.number({ error: 'Enter a longitude' }).min(-180, 'Longitude is −180 to 180').max(180, 'Longitude is −180 to 180'), 'Enter a longitude'),
   from: InstantSchema.optional().describe('Earliest start; defaults to now'),
-  days: z.coerce
-    .number({ error: 'Enter a number of days' })
-    .int('Enter whole days')
-    .min(1, `Search 1 to ${MAX_SLOT_SEARCH_DAYS} days`)
-    .max(MAX_SLOT_SEARCH_DAYS, `Search 1 to ${MAX_SLOT_SEARCH_DAYS} days`)
-    .default(7),
+  days: queryNumber(
+    z
+      .number({ error: 'Enter a number of days' })
+      .int('Enter whole days')
+      .min(1, `Search 1 to ${MAX_SLOT_SEARCH_DAYS} days`)
+      .max(MAX_SLOT_SEARCH_DAYS, `Search 1 to ${MAX_SLOT_SEARCH_DAYS} days`),
+    'Enter a number of days',
+  ).default(7),
 });
 export type SlotsQuery = z.output<typeof SlotsQuerySchema>;
 

@@ -4,6 +4,7 @@ import { checkVAT, countries as vatCountries } from 'jsvat';
 import { z } from 'zod';
 import { CatalogueCodeSchema, CapabilityCategorySchema } from './catalogue';
 import { AuditEntrySchema, IdSchema, OrganisationStatusSchema, type OrganisationStatus } from './accounts';
+import { LocalDateSchema } from './hours';
 
 /** Countries the network works in (ISO 3166-1 alpha-2). */
 export const NETWORK_COUNTRIES = ['AT', 'DE', 'CH', 'IT', 'SI', 'SE', 'NO', 'DK', 'FI'] as const;
@@ -84,14 +85,13 @@ export const REQUIRED_DOCUMENTS: readonly DocumentKind[] = ['insurance', 'regist
 export const UPLOAD_LIMIT_BYTES = 10 * 1024 * 1024;
 export const UPLOAD_TYPES = ['application/pdf', 'image/jpeg', 'image/png', 'image/webp'] as const;
 
-const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/;
-
 /** The form fields sent with an uploaded file (multipart). `today` is the caller's date (YYYY-MM-DD). */
 export function documentFieldsSchema(today: string) {
   return z
     .object({
       kind: DocumentKindSchema,
-      expiresOn: z.string().regex(ISO_DATE, 'Enter the date as YYYY-MM-DD').optional(),
+      // a date that passes the pattern but not the calendar (2031-02-31) is refused here, not by the database
+      expiresOn: LocalDateSchema.optional(),
       capabilityCode: CatalogueCodeSchema.optional(),
     })
     .superRefine((v, ctx) => {

@@ -5,6 +5,7 @@ import { CatalogueCodeSchema, CautionCodeSchema } from './catalogue';
 import { EligibilityResultSchema, VehicleProfileSchema } from './eligibility';
 import { LocalDateSchema } from './hours';
 import { CurrencySchema } from './offers';
+import { queryNumber } from './query';
 
 /** Largest search radius, km: how far an owner will drive to a workshop. */
 export const MAX_SEARCH_RADIUS_KM = 300;
@@ -15,26 +16,29 @@ export const SEARCH_MODES = ['any', 'mobile', 'workshop'] as const;
 export const SEARCH_SLOT_DAYS = 14;
 export const SEARCH_LIMIT = { default: 20, max: 50 } as const;
 
-const latitude = z.coerce.number({ error: 'Enter a latitude' }).min(-90, 'Latitude is −90 to 90').max(90, 'Latitude is −90 to 90');
-const longitude = z.coerce.number({ error: 'Enter a longitude' }).min(-180, 'Longitude is −180 to 180').max(180, 'Longitude is −180 to 180');
+const latitude = queryNumber(z.number({ error: 'Enter a latitude' }).min(-90, 'Latitude is −90 to 90').max(90, 'Latitude is −90 to 90'), 'Enter a latitude');
+const longitude = queryNumber(z.number({ error: 'Enter a longitude' }).min(-180, 'Longitude is −180 to 180').max(180, 'Longitude is −180 to 180'), 'Enter a longitude');
 
 export const SearchQuerySchema = VehicleProfileSchema.extend({
   serviceType: CatalogueCodeSchema,
   lat: latitude,
   lng: longitude,
-  radiusKm: z.coerce
-    .number({ error: 'Enter a radius in km' })
-    .int('Enter whole kilometres')
-    .min(1, `The radius is 1 to ${MAX_SEARCH_RADIUS_KM} km`)
-    .max(MAX_SEARCH_RADIUS_KM, `The radius is 1 to ${MAX_SEARCH_RADIUS_KM} km`)
+  radiusKm: queryNumber(
+    z
+      .number({ error: 'Enter a radius in km' })
+      .int('Enter whole kilometres')
+      .min(1, `The radius is 1 to ${MAX_SEARCH_RADIUS_KM} km`)
+      .max(MAX_SEARCH_RADIUS_KM, `The radius is 1 to ${MAX_SEARCH_RADIUS_KM} km`),
+    'Enter a radius in km',
+  )
     .default(DEFAULT_SEARCH_RADIUS_KM)
     .describe('How far the owner will drive to a workshop; mobile partners must cover the place itself'),
   mode: z.enum(SEARCH_MODES, { error: 'Choose any, mobile or workshop' }).default('any'),
-  maxPriceMinor: z.coerce.number({ error: 'Enter a maximum price' }).int('Enter whole minor units').min(0, 'The maximum price cannot be negative').max(10_000_000, 'Use at most 10 000 000').optional(),
+  maxPriceMinor: queryNumber(z.number({ error: 'Enter a maximum price' }).int('Enter whole minor units').min(0, 'The maximum price cannot be negative').max(10_000_000, 'Use at most 10 000 000'), 'Enter a maximum price').optional(),
   currency: CurrencySchema.optional().describe('Currency of maxPriceMinor; results priced in another currency are left out when a maximum is set'),
   date: LocalDateSchema.optional().describe('Only partners with a free slot on this date (their local date)'),
   sort: z.enum(SEARCH_SORTS, { error: 'Sort by best, distance, price or soonest' }).default('best'),
-  limit: z.coerce.number().int().min(1).max(SEARCH_LIMIT.max, `Ask for 1 to ${SEARCH_LIMIT.max} results`).default(SEARCH_LIMIT.default),
+  limit: queryNumber(z.number().int().min(1).max(SEARCH_LIMIT.max, `Ask for 1 to ${SEARCH_LIMIT.max} results`)).default(SEARCH_LIMIT.default),
 });
 export type SearchQuery = z.output<typeof SearchQuerySchema>;
 export type SearchRequest = z.input<typeof SearchQuerySchema>;
@@ -88,7 +92,7 @@ export type SearchResponse = z.infer<typeof SearchResponseSchema>;
 
 export const PlaceQuerySchema = z.object({
   q: z.string({ error: 'Type at least two letters of a place' }).trim().min(2, 'Type at least two letters of a place').max(80, 'Use at most 80 characters'),
-  limit: z.coerce.number().int().min(1).max(20).default(8),
+  limit: queryNumber(z.number().int().min(1).max(20)).default(8),
 });
 export const PlaceSchema = z.object({ id: z.number().int(), name: z.string(), country: z.string(), lat: z.number(), lng: z.number(), population: z.number().int() });
 export type Place = z.infer<typeof PlaceSchema>;
@@ -103,7 +107,7 @@ export const CoverageAlertInputSchema = z.object({
 export type CoverageAlertInput = z.output<typeof CoverageAlertInputSchema>;
 
 export const CoverageGapsQuerySchema = z.object({
-  days: z.coerce.number().int().min(1, 'Look back 1 to 365 days').max(365, 'Look back 1 to 365 days').default(90),
+  days: queryNumber(z.number().int().min(1, 'Look back 1 to 365 days').max(365, 'Look back 1 to 365 days')).default(90),
   serviceType: CatalogueCodeSchema.optional(),
 });
 export const CoverageGapCellSchema = z.object({
