@@ -11,6 +11,7 @@ import { portInUse, waitForHttp } from './lib/net';
 import { failAndExit, ok, step, warn } from './lib/output';
 import { dbEnv, devDatabase, localSecret, root } from './lib/project';
 import { ensureSystemPackages, MARIADB } from './lib/system';
+import { DEMO_FORCED_MESSAGE, DEMO_REFUSED_MESSAGE } from '../apps/api/src/db/seed';
 import { DEMO_NETWORK_ADMINS, DEMO_ORGANISATIONS, DEMO_OWNERS, DEMO_PASSWORD } from '../apps/api/src/db/seed/demo-data';
 
 function demoSignIns(): string {
@@ -107,6 +108,8 @@ try {
   const report = await migrateAndSeed(config, { bcryptCost: config.BCRYPT_COST });
   const seeded = report.seed;
   ok(`Database ready: ${report.migrationsRun.length} migration(s) run; seed added ${seeded?.capabilitiesAdded ?? 0} capabilities, ${seeded?.serviceTypesAdded ?? 0} service types, ${seeded?.organisationsAdded ?? 0} organisations, ${seeded?.usersAdded ?? 0} people`);
+  if (seeded?.demo === 'refused-in-production') warn(DEMO_REFUSED_MESSAGE);
+  else if (seeded?.demo === 'seeded' && config.NODE_ENV === 'production') warn(DEMO_FORCED_MESSAGE);
   // watches the server by its pid and starts it again on the same data directory and port
   dbSupervisor = superviseMariaDb(db, { onEvent: reportDb, onRestart: (next) => (db = next) });
   void dbSupervisor.done.then((how) => {
@@ -172,9 +175,7 @@ try {
                                and in the Console's mail log (network admins)
   Payments                     ${RUN_PAYMENTS_FAKE ? `local payments fake at http://127.0.0.1:${PAYMENTS_FAKE_PORT} (test payment page; state at /__fake/state)` : `provider API at ${env.STRIPE_API_BASE}`}
 
-  Demo sign-ins, all with the password ${DEMO_PASSWORD}:
-${demoSignIns()}
-
+${seeded?.demo === 'seeded' ? `  Demo sign-ins, all with the password ${DEMO_PASSWORD}:\n${demoSignIns()}\n` : ''}
   Press Ctrl-C to stop the API, the e-mail capture server, the payments fake and MariaDB.
 `);
   }

@@ -131,6 +131,13 @@ export class ConfigError extends Error {
   }
 }
 
+/** NODE_ENV and SEED_DEMO alone, for `npm run seed`, which needs nothing else of the API's configuration. */
+export function loadSeedSettings(env: NodeJS.ProcessEnv = process.env): z.infer<typeof SeedEnvSchema> {
+  const parsed = SeedEnvSchema.safeParse(env);
+  if (!parsed.success) throw new ConfigError(parsed.error.issues.map((i) => ({ variable: String(i.path[0] ?? '?'), message: i.message })));
+  return parsed.data;
+}
+
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const parsed = EnvSchema.safeParse(env);
   if (!parsed.success) {

@@ -1,6 +1,7 @@
 // Seeds what every environment needs and the invented demo scenario. Idempotent: running it
 // twice adds nothing twice.
 import type { EntityManager } from 'typeorm';
+import type { SeedDemoMode } from '../../config';
 import type { Storage } from '../../storage';
 import { CapabilityEntity, ServiceTypeEntity } from '../../entities';
 import { seedRules } from '../../services/eligibility-rules.service';
@@ -43,13 +44,37 @@ export async function seedCatalogue(manager: EntityManager): Promise<SeedReport>
   return report;
 }
 
-export interface FullSeedReport extends SeedReport, DemoSeedReport {}
+export interface FullSeedReport extends SeedReport, DemoSeedReport {
+  /** What happened to the demo scenario: added (or there already), not asked for, or left out because this is production. */
+  demo: 'seeded' | 'off' | 'refused-in-production';
+}
+
+export const DEMO_REFUSED_MESSAGE =
+  'Demo data left out: NODE_ENV is production, and the demo accounts (a network admin among them) sign in with a published password. SEED_DEMO=force adds them anyway.';
+export const DEMO_FORCED_MESSAGE =
+  'SEED_DEMO=force in production: the demo accounts, a network admin among them, sign in with the password printed in the README. Never on a live site.';
 
 /**
- * The catalogue always; the demo scenario unless `demo` is false (production). Demo documents go
- * to `storage` (left out without one); if the seed fails, the files it stored are removed again.
+ * The demo scenario signs people in with a password printed in the README, a network admin among
+ * them: outside production by default, in production only when SEED_DEMO=force asks for it.
  */
-export async function runSeed(manager: EntityManager, o: { demo?: boolean; bcryptCost?: number; storage?: Storage } = {}): Promise<FullSeedReport> {
+export function demoSeedDecision(nodeEnv: string | undefined, mode: SeedDemoMode = 'auto'): FullSeedReport['demo'] {
+  if (mode === 'false') return 'off';
+  if (mode === 'force' || nodeEnv !== 'production') return 'seeded';
+  return 'refused-in-production';
+}
+
+/**
+ * The catalogue always; the demo scenario as `demoSeedDecision` allows (never when `demo` is
+ * false). Without `nodeEnv` the process's NODE_ENV decides, so a caller that forgets to pass it
+ * cannot put the demo accounts into a production database. Demo documents go to `storage` (left
+ * out without one); if the seed fails, the files it stored are removed again.
+ */
+export async function runSeed(
+  manager: EntityManager,
+  o: { demo?: boolean; nodeEnv?: string; seedDemo?: SeedDemoMode; bcryptCost?: number; storage?: Storage } = {},
+): Promise<FullSeedReport> {
+  const decision = o.demo === false ? 'off' : demoSeedDecision(o.nodeEnv ?? process.env.NODE_ENV, o.seedDemo);
   const stored: string[] = [];
   const storage: Storage | undefined = o.storage && {
     put: async (data) => {
@@ -63,8 +88,8 @@ export async function runSeed(manager: EntityManager, o: { demo?: boolean; bcryp
   try {
     return await manager.transaction(async (tx) => {
       const catalogue = await seedCatalogue(tx);
-      const demo = o.demo === false ? { usersAdded: 0, organisationsAdded: 0, profilesAdded: 0, documentsAdded: 0 } : await seedDemo(tx, o.bcryptCost ?? 12, { storage });
-      return { ...catalogue, ...demo };
+      const demo = decision === 'seeded' ? await seedDemo(tx, o.bcryptCost ?? 12, { storage }) : { usersAdded: 0, organisationsAdded: 0, profilesAdded: 0, documentsAdded: 0 };
+      return { ...catalogue, ...demo, demo: decision };
     });
   } catch (err) {
     await Promise.allSettled(stored.map((key) => o.storage!.delete(key)));
