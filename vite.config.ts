@@ -83,7 +83,7 @@ export default defineConfig({
         test: {
           name: 'unit',
           environment: 'node',
-          include: ['tests/unit/domain/**/*.test.ts', 'tests/unit/api-client/**/*.test.ts', 'tests/unit/api/**/*.test.ts', 'tests/reference/**/*.test.ts'],
+          include: ['tests/unit/domain/**/*.test.ts', 'tests/unit/api-client/**/*.test.ts', 'tests/unit/api/**/*.test.ts', 'tests/unit/scripts/**/*.test.ts', 'tests/reference/**/*.test.ts'],
         },
       },
       {

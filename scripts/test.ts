@@ -63,6 +63,8 @@ if (!setupFailed) {
     check('types: API, domain, client, scripts and tests (tsc)', bin('tsc'), ['--noEmit', '-p', 'tsconfig.json']);
     for (const p of ['apps/directory', 'apps/console', 'packages/ui']) check(`types: ${p} (vue-tsc)`, bin('vue-tsc'), ['--noEmit', '-p', `${p}/tsconfig.json`]);
   }
+  // high and critical advisories in what ships; a registry out of reach only warns
+  if (wants('audit')) check('dependencies: npm audit --omit=dev, no unexplained high or critical findings', process.execPath, ['--import', 'tsx', path.join(root, 'scripts', 'audit-check.ts')]);
 }
 
 const total = outcomes.reduce((a, o) => ({ passed: a.passed + o.passed, failed: a.failed + o.failed, skipped: a.skipped + o.skipped }), { passed: 0, failed: setupFailed ? 1 : 0, skipped: 0 });
