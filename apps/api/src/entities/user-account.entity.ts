@@ -34,6 +34,10 @@ export class UserAccountEntity {
   @Column({ type: 'datetime', precision: 3, nullable: true })
   lockedUntil!: Date | null;
 
+  /** Access tokens carry it; raising it (password reset) ends every token issued before. */
+  @Column({ type: 'int', unsigned: true, default: 0 })
+  tokenVersion!: number;
+
   @OneToMany('MembershipEntity', (m: MembershipEntity) => m.user)
   memberships!: MembershipEntity[];
 
