@@ -35,6 +35,8 @@ export function authController({ dataSource, authSettings }: AppContext) {
   };
   const cookieOf = (req: Request): string | undefined => (req.cookies as Record<string, string> | undefined)?.[REFRESH_COOKIE];
   const accepted = (message: string) => ({ data: { accepted: true as const, message } });
+  // these routes are anonymous; the password throttle keys on the client's address
+  const withIp = (actor: Actor, req: Request): Actor => ({ ...actor, ip: actor.ip ?? req.ip ?? null });
 
   return {
     signUpOwner: async ({ body, actor }: { body: OwnerSignUp & { email: string; locale: 'en' | 'de' }; actor: Actor }) => {
@@ -49,9 +51,9 @@ export function authController({ dataSource, authSettings }: AppContext) {
       await tx(actor, (ctx) => auth.resendVerification(ctx, body.email, body.app, authSettings));
       return accepted(auth.ACCEPTED_RESEND);
     },
-    signIn: async ({ body, res, actor }: { body: { email: string; password: string }; res: Response; actor: Actor }) => {
+    signIn: async ({ body, req, res, actor }: { body: { email: string; password: string }; req: Request; res: Response; actor: Actor }) => {
       // lock-out bookkeeping must persist even though sign-in fails, so this runs without a wrapping transaction
-      const session = await auth.signIn({ manager: dataSource.manager, actor }, body, authSettings);
+      const session = await auth.signIn({ manager: dataSource.manager, actor: withIp(actor, req) }, body, authSettings);
       return respondWithSession(res, session);
     },
     refresh: async ({ req, res, actor }: { req: Request; res: Response; actor: Actor }) => {
@@ -69,21 +71,22 @@ export function authController({ dataSource, authSettings }: AppContext) {
     verifyEmail: async ({ body, res, actor }: { body: { token: string }; res: Response; actor: Actor }) =>
       respondWithSession(res, await tx(actor, (ctx) => auth.verifyEmail(ctx, body.token, authSettings))),
     forgotPassword: async ({ body, actor }: { body: { email: string; app: 'directory' | 'console' }; actor: Actor }) => {
-      await tx(actor, (ctx) => auth.forgotPassword(ctx, body.email, body.app, authSettings));
+      // its own transaction, so its minimum answer time covers the commit too
+      await auth.forgotPassword({ manager: dataSource.manager, actor }, body.email, body.app, authSettings);
       return accepted(auth.ACCEPTED_RESET);
     },
-    resetPassword: async ({ body, actor }: { body: { token: string; password: string }; actor: Actor }) => {
-      await tx(actor, (ctx) => auth.resetPassword(ctx, body, authSettings));
+    resetPassword: async ({ body, req, actor }: { body: { token: string; password: string }; req: Request; actor: Actor }) => {
+      await tx(withIp(actor, req), (ctx) => auth.resetPassword(ctx, body, authSettings));
       return accepted('Your password has been changed. Please sign in with the new one.');
     },
     previewInvitation: async ({ params }: { params: { token: string } }) => ({ data: await team.previewInvitation(dataSource.manager, params.token) }),
-    acceptInvitation: async ({ body, res, actor }: { body: AcceptInvitation; res: Response; actor: Actor }) => {
+    acceptInvitation: async ({ body, req, res, actor }: { body: AcceptInvitation; req: Request; res: Response; actor: Actor }) => {
       const validateNewPassword = (email: string, password: string, name?: string) => {
         const errors = passwordProblems(email, password).map((message) => ({ path: 'password', message }));
         if (!name?.trim()) errors.unshift({ path: 'name', message: 'Enter your name' });
         if (errors.length) throw ValidationFailed('Please correct the highlighted fields.', errors);
       };
-      return respondWithSession(res, await tx(actor, (ctx) => team.acceptInvitation(ctx, body, authSettings, validateNewPassword)));
+      return respondWithSession(res, await tx(withIp(actor, req), (ctx) => team.acceptInvitation(ctx, body, authSettings, validateNewPassword)));
     },
   };
 }

@@ -38,7 +38,8 @@ export function registerAuthRoutes(api: ApiRouter, app: AppContext): void {
       method: 'post',
       path: '/auth/sign-in',
       summary: 'Sign in; returns an access token and sets the refresh cookie',
-      description: 'After 10 failed attempts the account is locked for 15 minutes and its owner is e-mailed.',
+      description:
+        'Failed passwords are throttled per address and client IP (after 5, pauses of 1, 2, 4 … 60 minutes answer 429), alike for addresses with and without an account. 100 failures on one address in a day lock the account for 24 hours or until its owner uses the e-mailed reset link; a locked account answers like a wrong password.',
       tags,
       body: SignInSchema,
       response: SessionResponseSchema,

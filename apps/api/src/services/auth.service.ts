@@ -1,5 +1,14 @@
-// Sign-up, sign-in with lock-out, e-mail verification and password reset. Answers that could
-// tell whether an address has an account are the same either way.
+// Sign-up, sign-in, e-mail verification and password reset. Answers that could tell whether an
+// address has an account are the same either way, in status, body and (as far as work goes) time.
+//
+// Lock-out: a stranger must not be able to lock an owner out. Failed passwords are throttled per
+// address and client IP (sign-in-throttle.service.ts: 5 free, then pauses of 1, 2, 4 … 60 minutes),
+// so a guesser's pauses do not touch the owner elsewhere. Unknown addresses are throttled alike,
+// so a pause says nothing about an account. Only a spread-out attack (100 failures on one address
+// in a day, from many IPs) locks the account itself, for 24 hours or until the owner proves the
+// address with the e-mailed reset link; a locked account answers exactly like a wrong password.
+import { randomBytes } from 'node:crypto';
+import { setTimeout as sleep } from 'node:timers/promises';
 import bcrypt from 'bcryptjs';
 import { IsNull, type EntityManager } from 'typeorm';
 import { PASSWORD_IS_EMAIL_MESSAGE, passwordMatchesEmail, type OwnerSignUp, type PartnerSignUp } from '@emberline/domain';
@@ -10,24 +19,33 @@ import { hashToken, newId, newToken } from '../lib/secure-token';
 import { enqueueMail } from '../mail/outbox';
 import { audit } from './audit.service';
 import { issueSession, revokeAllSessions, type IssuedSession, type SessionSettings } from './session.service';
+import { beginPasswordAttempt, forgetFailures, passwordAccepted, sweepThrottle, throttleKeys } from './sign-in-throttle.service';
 
 export interface AuthSettings extends SessionSettings {
   bcryptCost: number;
   publicUrl: string;
 }
 
-export const LOCKOUT_THRESHOLD = 10;
-export const LOCKOUT_MINUTES = 15;
+/** Failed passwords on one address within a day (from any IPs) that lock the account. */
+export const ACCOUNT_LOCK_FAILURES = 100;
+export const ACCOUNT_LOCK_HOURS = 24;
+/** Forgot-password answers no sooner than this, so the work done only for a known address does not show. */
+export const FORGOT_PASSWORD_MIN_MS = 250;
 export const VERIFY_HOURS = 48;
 export const RESET_MINUTES = 30;
 
 export const InvalidCredentials = createError('INVALID_CREDENTIALS', 401, 'E-mail address or password is not right');
-export const AccountLocked = createError('ACCOUNT_LOCKED', 429, 'Too many failed sign-ins');
 export const EmailNotVerified = createError('EMAIL_NOT_VERIFIED', 403, 'Please confirm your e-mail address first');
 export const InvalidLink = createError('INVALID_LINK', 400, 'This link is no longer valid');
 
-// a real bcrypt hash of a random string: comparing against it costs the same time as a real check
-const DUMMY_HASH = '$2b$12$a6jiy7a4w1e2j6Wx7E62JOsrl/LLmv6tjMQT8DtBB1yDVq1I3H2rG';
+// a bcrypt hash of a random secret at the configured cost: checking an unknown address costs
+// what a real check costs
+const dummyHashes = new Map<number, Promise<string>>();
+function dummyHash(cost: number): Promise<string> {
+  let hash = dummyHashes.get(cost);
+  if (!hash) dummyHashes.set(cost, (hash = bcrypt.hash(randomBytes(32).toString('base64url'), cost)));
+  return hash;
+}
 
 export const ACCEPTED_SIGN_UP = 'Thanks! If this address can be used, we have sent a link to confirm it. Please check your inbox.';
 export const ACCEPTED_RESET = 'If an account uses this address, we have sent a link to choose a new password. Please check your inbox.';
@@ -121,35 +139,54 @@ export async function resendVerification(ctx: ServiceContext, email: string, app
   if (user && !user.emailVerifiedAt) await sendVerification(ctx.manager, user, app, settings);
 }
 
+/** Locks the account and e-mails its owner a reset link (which lifts the lock); once per lock. */
+async function lockAccount(manager: EntityManager, user: UserAccountEntity, settings: AuthSettings): Promise<void> {
+  await manager.connection.transaction(async (m) => {
+    const now = new Date();
+    const locked = await m
+      .createQueryBuilder()
+      .update(UserAccountEntity)
+      .set({ lockedUntil: new Date(now.getTime() + ACCOUNT_LOCK_HOURS * 3_600_000) })
+      .where('id = :id AND (locked_until IS NULL OR locked_until <= :now)', { id: user.id, now })
+      .execute();
+    if (!locked.affected) return;
+    const resetToken = await createOneTimeToken(m, user.id, 'reset_password', RESET_MINUTES);
+    await enqueueMail(m, {
+      to: user.email,
+      template: 'account-locked',
+      locale: user.locale,
+      data: { name: user.name, minutes: ACCOUNT_LOCK_HOURS * 60, resetLink: appLink(settings, user.isOwner ? 'directory' : 'console', 'reset-password', resetToken) },
+    });
+  });
+}
+
+/**
+ * The one check of a password against an address, known (`user`) or not (null): throttled per
+ * address and IP (throws SignInPaused), counted toward the account lock, and as slow either way.
+ * True only when the account exists, is not locked and the password is right. The bookkeeping
+ * is written outside the caller's transaction, so a failure that rolls it back still counts.
+ */
+export async function checkPassword(ctx: ServiceContext, email: string, user: UserAccountEntity | null, password: string, settings: AuthSettings): Promise<boolean> {
+  const keys = throttleKeys(email, ctx.actor.ip);
+  const { addressFailures } = await beginPasswordAttempt(ctx.manager, keys);
+  const matches = await bcrypt.compare(password, user?.passwordHash ?? (await dummyHash(settings.bcryptCost)));
+  const locked = user?.lockedUntil != null && user.lockedUntil.getTime() > Date.now();
+  if (user && matches && !locked) {
+    await passwordAccepted(ctx.manager, keys);
+    return true;
+  }
+  if (user && !locked && addressFailures >= ACCOUNT_LOCK_FAILURES) await lockAccount(ctx.manager, user, settings);
+  return false;
+}
+
 export async function signIn(ctx: ServiceContext, input: { email: string; password: string }, settings: AuthSettings): Promise<IssuedSession> {
   const users = ctx.manager.getRepository(UserAccountEntity);
   const user = await users.findOneBy({ email: input.email });
-  if (!user) {
-    await bcrypt.compare(input.password, DUMMY_HASH);
-    throw InvalidCredentials('Check the address and password, or reset your password.');
-  }
-  if (user.lockedUntil && user.lockedUntil.getTime() > Date.now()) {
-    const minutes = Math.ceil((user.lockedUntil.getTime() - Date.now()) / 60_000);
-    throw AccountLocked(`Sign-in is paused for this account for ${minutes} more minute(s). You can reset your password meanwhile.`);
-  }
-  if (!(await bcrypt.compare(input.password, user.passwordHash))) {
-    await users.increment({ id: user.id }, 'failedSignIns', 1);
-    const failed = user.failedSignIns + 1;
-    if (failed >= LOCKOUT_THRESHOLD) {
-      await users.update({ id: user.id }, { failedSignIns: 0, lockedUntil: new Date(Date.now() + LOCKOUT_MINUTES * 60_000) });
-      const resetToken = await createOneTimeToken(ctx.manager, user.id, 'reset_password', RESET_MINUTES);
-      await enqueueMail(ctx.manager, {
-        to: user.email,
-        template: 'account-locked',
-        locale: user.locale,
-        data: { name: user.name, minutes: LOCKOUT_MINUTES, resetLink: appLink(settings, user.isOwner ? 'directory' : 'console', 'reset-password', resetToken) },
-      });
-      throw AccountLocked(`After ${LOCKOUT_THRESHOLD} failed attempts, sign-in is paused for ${LOCKOUT_MINUTES} minutes. We have e-mailed you.`);
-    }
-    throw InvalidCredentials('Check the address and password, or reset your password.');
-  }
+  const accepted = await checkPassword(ctx, input.email, user, input.password, settings);
+  if (!accepted || !user) throw InvalidCredentials('Check the address and password, or reset your password.');
   if (!user.emailVerifiedAt) throw EmailNotVerified('Open the link we e-mailed you, or ask for a new one.');
-  if (user.failedSignIns || user.lockedUntil) await users.update({ id: user.id }, { failedSignIns: 0, lockedUntil: null });
+  if (user.lockedUntil) await users.update({ id: user.id }, { lockedUntil: null });
+  await sweepThrottle(ctx.manager);
   return issueSession(ctx.manager, user, settings);
 }
 
@@ -162,16 +199,28 @@ export async function verifyEmail(ctx: ServiceContext, token: string, settings: 
   return issueSession(ctx.manager, user, settings);
 }
 
+/**
+ * Runs in its own transaction on `ctx.manager` (pass one outside any transaction) and answers no
+ * sooner than FORGOT_PASSWORD_MIN_MS after it began, commit included: a known address costs a
+ * token, a rendered mail and a commit that writes, an unknown one a single read.
+ */
 export async function forgotPassword(ctx: ServiceContext, email: string, app: 'directory' | 'console', settings: AuthSettings): Promise<void> {
-  const user = await ctx.manager.getRepository(UserAccountEntity).findOneBy({ email });
-  if (!user) return;
-  const token = await createOneTimeToken(ctx.manager, user.id, 'reset_password', RESET_MINUTES);
-  await enqueueMail(ctx.manager, {
-    to: user.email,
-    template: 'reset-password',
-    locale: user.locale,
-    data: { name: user.name, link: appLink(settings, app, 'reset-password', token), minutes: RESET_MINUTES },
-  });
+  const started = performance.now();
+  try {
+    await ctx.manager.transaction(async (manager) => {
+      const user = await manager.getRepository(UserAccountEntity).findOneBy({ email });
+      if (!user) return;
+      const token = await createOneTimeToken(manager, user.id, 'reset_password', RESET_MINUTES);
+      await enqueueMail(manager, {
+        to: user.email,
+        template: 'reset-password',
+        locale: user.locale,
+        data: { name: user.name, link: appLink(settings, app, 'reset-password', token), minutes: RESET_MINUTES },
+      });
+    });
+  } finally {
+    await sleep(Math.max(0, started + FORGOT_PASSWORD_MIN_MS - performance.now()));
+  }
 }
 
 export async function resetPassword(ctx: ServiceContext, input: { token: string; password: string }, settings: AuthSettings): Promise<void> {
@@ -181,9 +230,18 @@ export async function resetPassword(ctx: ServiceContext, input: { token: string;
   }
   await ctx.manager.getRepository(UserAccountEntity).update(
     { id: user.id },
-    // the link arrived by e-mail, so the address is confirmed too
-    { passwordHash: await hashPassword(input.password, settings.bcryptCost), failedSignIns: 0, lockedUntil: null, emailVerifiedAt: user.emailVerifiedAt ?? new Date() },
+    // the link arrived by e-mail, so the address is confirmed too; a new token version ends
+    // every access token issued before
+    {
+      passwordHash: await hashPassword(input.password, settings.bcryptCost),
+      failedSignIns: 0,
+      lockedUntil: null,
+      emailVerifiedAt: user.emailVerifiedAt ?? new Date(),
+      tokenVersion: () => 'token_version + 1',
+    },
   );
   await revokeAllSessions(ctx.manager, user.id);
+  // the owner proved the address: its failure count and this IP's pause start afresh
+  await forgetFailures(ctx.manager, throttleKeys(user.email, ctx.actor.ip));
   await enqueueMail(ctx.manager, { to: user.email, template: 'password-changed', locale: user.locale, data: { name: user.name } });
 }

@@ -8,9 +8,8 @@ import { createError, NotFound } from '../lib/errors';
 import { hashToken, newId, newToken } from '../lib/secure-token';
 import { enqueueMail } from '../mail/outbox';
 import { audit } from './audit.service';
-import { appLink, hashPassword, InvalidCredentials, type AuthSettings } from './auth.service';
+import { appLink, checkPassword, hashPassword, InvalidCredentials, type AuthSettings } from './auth.service';
 import { issueSession, type IssuedSession } from './session.service';
-import bcrypt from 'bcryptjs';
 
 export const INVITATION_DAYS = 7;
 export const AlreadyMember = createError('ALREADY_MEMBER', 409, 'This person is already in your team');
@@ -148,13 +147,16 @@ export interface AcceptInput {
   password: string;
 }
 
-/** Accepting creates the account (the link proves the address) or checks the existing account's password. */
+/**
+ * Accepting creates the account (the link proves the address) or checks the existing account's
+ * password, through the same throttle and lock as sign-in (an invitation is no way around them).
+ */
 export async function acceptInvitation(ctx: ServiceContext, input: AcceptInput, settings: AuthSettings, validateNewPassword: (email: string, password: string, name?: string) => void): Promise<IssuedSession> {
   const invitation = await findValidInvitation(ctx.manager, input.token, true);
   const users = ctx.manager.getRepository(UserAccountEntity);
   let user = await users.findOneBy({ email: invitation.email });
   if (user) {
-    if (!(await bcrypt.compare(input.password, user.passwordHash))) throw InvalidCredentials('Enter the password of your existing Emberline account.');
+    if (!(await checkPassword(ctx, user.email, user, input.password, settings))) throw InvalidCredentials('Enter the password of your existing Emberline account.');
     if (!user.emailVerifiedAt) await users.update({ id: user.id }, { emailVerifiedAt: new Date() });
   } else {
     validateNewPassword(invitation.email, input.password, input.name);
