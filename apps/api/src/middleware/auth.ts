@@ -40,12 +40,15 @@ export function createGuards(dataSource: DataSource, jwtSecret: string): Guards 
         issuer: JWT_ISSUER,
         audience: JWT_AUDIENCE,
       },
-      (payload: { sub?: string; typ?: string }, done: (err: unknown, user?: UserAccountEntity | false) => void) => {
+      (payload: { sub?: string; typ?: string; ver?: unknown }, done: (err: unknown, user?: UserAccountEntity | false) => void) => {
         if (payload.typ !== 'access' || !payload.sub) return done(null, false);
+        // tokens from before versions existed count as version 0
+        const version = payload.ver ?? 0;
         dataSource
           .getRepository(UserAccountEntity)
           .findOneBy({ id: payload.sub })
-          .then((user) => done(null, user ?? false), done);
+          // a password reset raised the account's version: tokens issued before it are void
+          .then((user) => done(null, user && user.tokenVersion === version ? user : false), done);
       },
     ),
   );

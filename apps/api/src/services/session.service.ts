@@ -53,8 +53,9 @@ export async function describeUser(manager: EntityManager, user: UserAccountEnti
   };
 }
 
-export function signAccessToken(userId: string, settings: SessionSettings): string {
-  return jwt.sign({ typ: 'access' }, settings.jwtSecret, {
+/** `tokenVersion` is the account's at signing; the guard refuses the token once the account's is higher. */
+export function signAccessToken(userId: string, settings: SessionSettings, tokenVersion = 0): string {
+  return jwt.sign({ typ: 'access', ver: tokenVersion }, settings.jwtSecret, {
     algorithm: 'HS256',
     subject: userId,
     issuer: JWT_ISSUER,
@@ -73,7 +74,7 @@ async function storeRefreshToken(manager: EntityManager, userId: string, familyI
 export async function issueSession(manager: EntityManager, user: UserAccountEntity, settings: SessionSettings, familyId = newId()): Promise<IssuedSession> {
   const refresh = await storeRefreshToken(manager, user.id, familyId, settings);
   return {
-    accessToken: signAccessToken(user.id, settings),
+    accessToken: signAccessToken(user.id, settings, user.tokenVersion ?? 0),
     expiresIn: settings.accessTtlSeconds,
     user: await describeUser(manager, user),
     refreshToken: refresh.token,
