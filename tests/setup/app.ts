@@ -1,4 +1,5 @@
 // Builds the real Express app against the test database for supertest and browser tests.
+import { randomUUID } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
@@ -22,7 +23,11 @@ export interface TestApp {
 
 export const TEST_JWT_SECRET = 'test-secret-for-emberline-api-tests-0123456789';
 
-export async function createTestApp(overrides: Record<string, string> = {}, o: { limits?: Partial<LimitSettings>; storage?: Storage } = {}): Promise<TestApp> {
+/**
+ * `limitScope`: apps given the same one share their rate-limit counters (as instances of one
+ * deployment do); by default each app counts on its own, so no test uses up another's limits.
+ */
+export async function createTestApp(overrides: Record<string, string> = {}, o: { limits?: Partial<LimitSettings>; storage?: Storage; limitScope?: string } = {}): Promise<TestApp> {
   const db = inject('db');
   const uploadsDir = mkdtempSync(path.join(tmpdir(), 'emberline-uploads-'));
   const config = loadConfig({
@@ -39,7 +44,7 @@ export async function createTestApp(overrides: Record<string, string> = {}, o: {
     ...overrides,
   });
   const dataSource = await createDataSource(config).initialize();
-  const app = createApp({ config, dataSource, logger: createLogger(config.LOG_LEVEL), version: 'test', jwtSecret: TEST_JWT_SECRET, limits: o.limits, storage: o.storage });
+  const app = createApp({ config, dataSource, logger: createLogger(config.LOG_LEVEL), version: 'test', jwtSecret: TEST_JWT_SECRET, limits: o.limits, limitScope: o.limitScope ?? `test-${randomUUID()}:`, storage: o.storage });
   return {
     app,
     dataSource,
