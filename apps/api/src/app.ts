@@ -45,6 +45,8 @@ export interface AppDeps {
   limits?: Partial<LimitSettings>;
   /** Where uploaded documents go; by default the driver the configuration names (tests pass a temporary directory). */
   storage?: Storage;
+  /** Prefix of this app's rate-limit counters in the database; instances sharing it share limits (tests give each app its own). */
+  limitScope?: string;
   /** The payments provider; by default the SDK against the configured API base (tests pass one at a local fake). */
   payments?: PaymentGateway;
 }
@@ -138,7 +140,7 @@ export function createApp(deps: AppDeps): EmberlineApp {
       bcryptCost: deps.config.BCRYPT_COST,
       publicUrl: deps.config.publicUrl,
     },
-    limiters: createLimiters(deps.limits),
+    limiters: createLimiters({ dataSource: deps.dataSource, logger: deps.logger, scope: deps.limitScope }, deps.limits),
     guards: createGuards(deps.dataSource, deps.jwtSecret),
   };
   const api = new ApiRouter(registry, '/api', context.guards);
