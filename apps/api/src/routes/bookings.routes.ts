@@ -125,7 +125,8 @@ export function registerBookingRoutes(api: ApiRouter, app: AppContext): void {
       method: 'get',
       path: '/orgs/:orgId/bookings',
       summary: 'The organisation\'s bookings, by start',
-      description: 'Held and released bookings (payment pages) only when asked for by `status`. `from`/`to` keep bookings overlapping that time; `q` searches the reference and the customer\'s name and e-mail.',
+      description:
+        'Partner admins (and network admins) see every booking of the organisation, a technician only the jobs assigned to them. Held and released bookings (payment pages) only when asked for by `status`. `from`/`to` keep bookings overlapping that time; `q` searches the reference and the customer\'s name and e-mail.',
       tags,
       ...readers,
       params: OrgParams,
@@ -139,7 +140,7 @@ export function registerBookingRoutes(api: ApiRouter, app: AppContext): void {
       method: 'get',
       path: '/orgs/:orgId/bookings.csv',
       summary: 'The organisation\'s bookings as CSV (RFC 4180)',
-      description: 'The list\'s filters; one row per booking under a header row, amounts in major units with a dot, times in UTC and local.',
+      description: 'The list\'s bookings (a technician\'s own jobs only) and filters; one row per booking under a header row, amounts in major units with a dot, times in UTC and local.',
       tags,
       ...readers,
       params: OrgParams,
@@ -148,7 +149,19 @@ export function registerBookingRoutes(api: ApiRouter, app: AppContext): void {
     },
     c.exportCsv,
   );
-  api.route({ method: 'get', path: '/orgs/:orgId/bookings/:bookingId', summary: 'One booking of the organisation', tags, ...readers, params: OrgBookingParams, response: One }, c.getOrg);
+  api.route(
+    {
+      method: 'get',
+      path: '/orgs/:orgId/bookings/:bookingId',
+      summary: 'One booking of the organisation',
+      description: 'A technician gets the jobs assigned to them; another technician\'s booking is 404, like another organisation\'s.',
+      tags,
+      ...readers,
+      params: OrgBookingParams,
+      response: One,
+    },
+    c.getOrg,
+  );
   api.route(
     {
       method: 'post',

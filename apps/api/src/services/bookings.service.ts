@@ -299,10 +299,27 @@ const orgScope = (ctx: ServiceContext) => {
   return { organisationId: ctx.actor.organisationId };
 };
 
+/**
+ * The technician whose jobs alone the caller may read, or null for every booking of the
+ * organisation. A booking carries the customer's name, e-mail, phone and address, so only partner
+ * admins (and network admins) see them all; anyone else sees the jobs assigned to them.
+ */
+function assignedTechnician(ctx: ServiceContext): string | null {
+  const { roles, userId } = ctx.actor;
+  if (roles.includes('partner_admin') || roles.includes('network_admin')) return null;
+  if (!userId) throw new Error('bookings service called without a signed-in caller');
+  return userId;
+}
+
 /** SQL conditions of the partner's list filters (without a status, held and released bookings are left out). */
 function listConditions(ctx: ServiceContext, q: Omit<BookingListQuery, 'limit'>): { sql: string; params: unknown[] } {
   const where = ['b.organisation_id = ?'];
   const params: unknown[] = [orgScope(ctx).organisationId];
+  const assigned = assignedTechnician(ctx);
+  if (assigned) {
+    where.push('b.technician_user_id = ?');
+    params.push(assigned);
+  }
   if (q.status) {
     where.push('b.status = ?');
     params.push(q.status);
@@ -335,7 +352,11 @@ export async function listOrgBookings(ctx: ServiceContext, q: BookingListQuery, 
 }
 
 export async function getOrgBooking(ctx: ServiceContext, id: string, now: Date): Promise<Booking> {
-  return one(ctx, await findBookingRow(ctx.manager, id, orgScope(ctx)), 'partner', now);
+  const row = await findBookingRow(ctx.manager, id, orgScope(ctx));
+  const assigned = assignedTechnician(ctx);
+  // another technician's job answers as if it were not there, like another organisation's
+  if (assigned && row.technician_user_id !== assigned) throw NotFound('There is no such booking.');
+  return one(ctx, row, 'partner', now);
 }
 
 /** At most this many rows in one CSV export. */
