@@ -157,6 +157,21 @@ describe('Console bookings table', () => {
     expect(wrapper.find('.ant-alert-error').text()).toContain('Only members of this organisation can export its bookings.');
   });
 
+  it('shows a technician their own jobs, with no one else to filter by', async () => {
+    vi.mocked(listPartnerBookings).mockResolvedValue([]);
+    // an address that names another technician (e.g. shared by an admin) narrows nothing
+    const { wrapper } = await mountPage(`/bookings?from=2026-03-01&technician=${TECH_ID}`, 'technician');
+    expect(wrapper.find('h2').text()).toBe('Your jobs');
+    expect(wrapper.find('.page__lead').text()).toContain('The jobs assigned to you');
+    expect(wrapper.find('[data-testid="filter-technician"]').exists()).toBe(false);
+    expect(wrapper.find('[data-testid="filter-status"]').exists()).toBe(true);
+    expect(lastQuery()).toEqual({ limit: 500, from: midnight('2026-03-01') });
+    await wrapper.find('[data-testid="clear-filters"]').trigger('click');
+    await flushPromises();
+    expect(wrapper.find('[data-state="empty"]').text()).toContain('When a job is assigned to you');
+    expect(wrapper.find('[data-testid="export-csv"]').exists()).toBe(true);
+  });
+
   it('shows the error with a retry when the list cannot be read', async () => {
     vi.mocked(listPartnerBookings).mockRejectedValueOnce(new Error('boom'));
     const { wrapper } = await mountPage();
