@@ -22,7 +22,7 @@ const rows = (sql: string) =>
   rootSql(db.socket, sql)
     .split('\n')
     .filter(Boolean)
-    .map((line) => line.split('\t'));
+    .map((line) => line.split('\t') as [string, ...string[]]);
 
 interface Snapshot {
   tables: Record<string, { rows: number; checksum: string }>;
@@ -79,7 +79,7 @@ describe('backup and restore', () => {
     expect(sql).not.toMatch(/DEFINER=`/);
 
     // the restored triggers work: a change to a watched table writes the change log
-    const logged = () => Number(rows(`SELECT COUNT(*) FROM \`${copy}\`.search_index_change`)[0][0]);
+    const logged = () => Number(rows(`SELECT COUNT(*) FROM \`${copy}\`.search_index_change`)[0]![0]);
     const n = logged();
     rootSql(db.socket, `UPDATE \`${copy}\`.partner_profile SET phone = phone LIMIT 1`);
     expect(logged()).toBe(n + 1);
