@@ -1,9 +1,7 @@
 // Partner onboarding through the API: a partner fills in the application, the network reviews
 // it, asks for changes, approves it, and the Directory lists the partner.
-import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import { projectRoot } from '../../apps/api/src/config';
 import { createTestApp, type TestApp } from '../setup/app';
 import { partnerWithTeam } from '../setup/accounts';
 import { isoDay, pdfBytes, PNG_BYTES } from '../setup/files';
@@ -304,7 +302,7 @@ describe('the demo network', () => {
 
   it('serves the demo documents from the storage the seed wrote them to', async () => {
     // the global setup seeds the documents into var/<database>-uploads
-    const seeded = await createTestApp({ UPLOADS_DIR: path.join(projectRoot, 'var', `${inject('db').name}-uploads`) });
+    const seeded = await createTestApp({ UPLOADS_DIR: inject('db').uploadsDir });
     try {
       const nwa = await networkAdmin(seeded.app);
       const [glutwerk] = (await request(seeded.app).get('/api/admin/applications').query({ q: 'Glutwerk' }).set(bearer(nwa)).expect(200)).body.data;

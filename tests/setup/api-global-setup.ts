@@ -13,7 +13,7 @@ import { ensureSystemPackages, MARIADB } from '../../scripts/lib/system';
 
 declare module 'vitest' {
   export interface ProvidedContext {
-    db: DatabaseSettings & { socket: string; pid: number };
+    db: DatabaseSettings & { socket: string; pid: number; uploadsDir: string };
   }
 }
 
@@ -23,13 +23,14 @@ export default async function setup(project: TestProject) {
   const db = await startMariaDb(settings.dir, settings.port);
   ensureDatabase(db, { ...settings, recreate: true });
   // the demo documents of the recreated database, never in the development uploads
-  const uploads = path.join(projectRoot, 'var', `${settings.name}-uploads`);
+  // another test server port (a second run side by side) keeps its own folder too
+  const uploads = path.join(projectRoot, 'var', `${settings.name}${settings.port === 3308 ? '' : `-${settings.port}`}-uploads`);
   rmSync(uploads, { recursive: true, force: true });
   await migrateAndSeed(
     { DB_HOST: '127.0.0.1', DB_PORT: settings.port, DB_NAME: settings.name, DB_USER: settings.user, DB_PASSWORD: settings.password, DB_POOL_SIZE: 2 },
     { bcryptCost: 4, storage: new LocalDiskStorage(uploads) },
   );
-  project.provide('db', { ...settings, socket: db.socket, pid: db.pid });
+  project.provide('db', { ...settings, socket: db.socket, pid: db.pid, uploadsDir: uploads });
   return async () => {
     if (db.startedHere) await db.stop();
   };
