@@ -16,19 +16,24 @@ import {
   processOutbox,
   type MailTransport,
 } from '../../apps/api/src/mail/outbox';
+import { useMailSecretKey } from '../../apps/api/src/mail/secret-data';
 import { dbEnv } from '../../scripts/lib/project';
+import { TEST_JWT_SECRET } from '../setup/app';
 
 const FROM = 'Emberline <no-reply@emberline.test>';
 const LINK = 'https://emberline.test/verify-email?token=tok-123&app=directory';
+const REDACTED_LINK = 'https://emberline.test/verify-email?token=[redacted]&app=directory';
 
 let dataSource: DataSource;
 let capture: MailCapture;
 let transport: ReturnType<typeof createMailTransport>;
 
-const testEnv = () => ({ ...dbEnv(inject('db')), NODE_ENV: 'test', LOG_LEVEL: 'silent', DB_POOL_SIZE: '4', MAIL_FROM: FROM });
+// the jobs open sealed links with a key derived from JWT_SECRET, as the server hands it to them
+const testEnv = () => ({ ...dbEnv(inject('db')), NODE_ENV: 'test', LOG_LEVEL: 'silent', DB_POOL_SIZE: '4', MAIL_FROM: FROM, JWT_SECRET: TEST_JWT_SECRET });
 
 beforeAll(async () => {
   dataSource = await createDataSource(loadConfig(testEnv())).initialize();
+  useMailSecretKey(dataSource, TEST_JWT_SECRET);
   capture = await startMailCapture({ smtpPort: 0, httpPort: 0 });
   transport = createMailTransport(`smtp://127.0.0.1:${capture.smtpPort}`);
 });
@@ -53,12 +58,13 @@ const run = (options: { now?: Date; transport?: MailTransport } = {}) =>
 const after = (base: Date, ms: number) => new Date(base.getTime() + ms);
 
 describe('enqueueMail', () => {
-  it('stores the rendered message as pending, due now', async () => {
+  it('stores the rendered message as pending, due now, its link token redacted', async () => {
     const row = await enqueue();
     const saved = await stored(row.id);
     expect(saved).toMatchObject({ to: 'anna@example.org', template: 'verify-email', locale: 'en', status: 'pending', attempts: 0, lastError: null, sentAt: null });
     expect(saved.subject).toBe('Confirm your e-mail address for Emberline');
-    expect(saved.text).toContain(LINK);
+    expect(saved.text).toContain(REDACTED_LINK);
+    expect(saved.text).not.toContain('tok-123');
     expect(saved.html).toContain('Hello Anna,');
     expect(saved.nextAttemptAt.getTime()).toBeLessThanOrEqual(Date.now());
   });

@@ -8,6 +8,7 @@ import { createScheduler, type Scheduler } from '../../apps/api/src/jobs/schedul
 import { createLogger } from '../../apps/api/src/lib/logger';
 import { dbEnv } from '../../scripts/lib/project';
 import { GOOD_PASSWORD, uniqueEmail } from '../setup/accounts';
+import { TEST_JWT_SECRET } from '../setup/app';
 import { DESKTOP, expectAccessible, openPage, PHONE, screenshot, startHarness, type Harness } from './browser';
 
 let h: Harness;
@@ -18,7 +19,8 @@ beforeAll(async () => {
   capture = await startMailCapture({ smtpPort: 0, httpPort: 0 });
   const mailEnv = { SMTP_URL: `smtp://127.0.0.1:${capture.smtpPort}`, MAIL_INTERVAL_SECONDS: '1' };
   h = await startHarness(mailEnv);
-  scheduler = createScheduler({ env: { ...process.env, ...dbEnv(inject('db')), NODE_ENV: 'test', LOG_LEVEL: 'silent', BCRYPT_COST: '4', ...mailEnv }, logger: createLogger('silent') });
+  // the sender opens the links' sealed tokens with the key of the app's secret, as the server hands it over
+  scheduler = createScheduler({ env: { ...process.env, ...dbEnv(inject('db')), NODE_ENV: 'test', LOG_LEVEL: 'silent', BCRYPT_COST: '4', JWT_SECRET: TEST_JWT_SECRET, ...mailEnv }, logger: createLogger('silent') });
   await scheduler.start();
 });
 afterAll(async () => {

@@ -4,19 +4,22 @@ import request from 'supertest';
 import type { DataSource } from 'typeorm';
 import type { Express } from 'express';
 import { expect } from 'vitest';
+import { MailOutboxEntity } from '../../apps/api/src/entities/mail-outbox.entity';
+import { outgoingContent } from '../../apps/api/src/mail/outbox';
+import { mailSecretKeyOf } from '../../apps/api/src/mail/secret-data';
 
 let counter = 0;
 export const uniqueEmail = (prefix = 'person') => `${prefix}-${Date.now().toString(36)}-${++counter}@test.example`;
 export const GOOD_PASSWORD = 'winter-glow-pin-42';
 
-/** The newest link of a template sent to an address, read from the outbox. */
+/**
+ * The newest link of a template sent to an address, read from the outbox as the sender would send
+ * it (the stored text has its token redacted; the sender opens the sealed one).
+ */
 export async function linkFromMail(ds: DataSource, to: string, template: string): Promise<string> {
-  const rows: { text_body: string }[] = await ds.query(
-    'SELECT text_body FROM mail_outbox WHERE to_address = ? AND template = ? ORDER BY created_at DESC, id DESC LIMIT 1',
-    [to, template],
-  );
+  const rows = await ds.getRepository(MailOutboxEntity).find({ where: { to, template }, order: { createdAt: 'DESC', id: 'DESC' }, take: 1 });
   expect(rows.length, `a ${template} e-mail to ${to}`).toBe(1);
-  const link = rows[0]!.text_body.match(/https?:\/\/\S+token=[\w-]+/)?.[0];
+  const link = outgoingContent(rows[0]!, mailSecretKeyOf(ds)).text.match(/https?:\/\/\S+token=[\w-]+/)?.[0];
   expect(link, `a link in the ${template} e-mail`).toBeDefined();
   return link!;
 }

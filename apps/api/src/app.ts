@@ -11,6 +11,8 @@ import type { DataSource } from 'typeorm';
 import { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
 import type { Config } from './config';
 import type { Logger } from './lib/logger';
+import { redactUrl } from './lib/redact';
+import { useMailSecretKey } from './mail/secret-data';
 import { ApiRouter } from './lib/api-router';
 import { apiNotFound, problemDetails } from './middleware/problem-details';
 import { createGuards, type Guards } from './middleware/auth';
@@ -120,7 +122,7 @@ export function createApp(deps: AppDeps): EmberlineApp {
       autoLogging: { ignore: (req) => req.url === '/api/health' },
       // one short line per request: no headers (they carry tokens and cookies)
       serializers: {
-        req: (req: { id: string; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+        req: (req: { id: string; method: string; url: string }) => ({ id: req.id, method: req.method, url: redactUrl(req.url) }),
         res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
       },
     }),
@@ -128,6 +130,7 @@ export function createApp(deps: AppDeps): EmberlineApp {
 
   const registry = new OpenAPIRegistry();
   app.openApiRegistry = registry;
+  useMailSecretKey(deps.dataSource, deps.jwtSecret);
 
   const context: AppContext = {
     ...deps,

@@ -1,4 +1,4 @@
-// One e-mail waiting to be sent, sent, or given up on; rendered when queued.
+// One e-mail waiting to be sent, sent, or given up on; rendered when queued, link tokens redacted.
 import { Column, Entity, PrimaryColumn } from 'typeorm';
 
 export type MailStatus = 'pending' | 'sent' | 'failed';
@@ -9,6 +9,9 @@ export interface MailAttachment {
   contentType: string;
   content: string;
 }
+
+/** A template's data as stored: texts, numbers, and money or instants as small objects. */
+export type MailTemplateValues = { [field: string]: string | number | { [part: string]: string | number } };
 
 @Entity({ name: 'mail_outbox' })
 export class MailOutboxEntity {
@@ -35,6 +38,14 @@ export class MailOutboxEntity {
 
   @Column({ type: 'json', nullable: true })
   attachments!: MailAttachment[] | null;
+
+  /** The template's data with every link token redacted: what the log may show. Null on rows queued before it existed. */
+  @Column({ type: 'json', nullable: true, name: 'template_data' })
+  templateData!: MailTemplateValues | null;
+
+  /** The redacted fields' real values, sealed (AES-256-GCM); set to null once sent or given up on. */
+  @Column({ type: 'text', nullable: true, name: 'secret_data' })
+  secretData!: string | null;
 
   @Column({ type: 'varchar', length: 12, default: 'pending' })
   status!: MailStatus;

@@ -3,13 +3,17 @@ import { parentPort } from 'node:worker_threads';
 import { loadConfig } from '../config';
 import { createDataSource } from '../db/data-source';
 import { createLogger } from '../lib/logger';
+import { localSecret } from '../lib/local-secrets';
 import { createMailTransport, processOutbox } from '../mail/outbox';
+import { useMailSecretKey } from '../mail/secret-data';
 
 const config = loadConfig();
 const logger = createLogger(config.LOG_LEVEL).child({ job: 'send-mail' });
 // one connection holds the outbox lock and does the work; a second covers TypeORM's own check
 const dataSource = createDataSource({ ...config, DB_POOL_SIZE: 2 });
 const transport = createMailTransport(config.SMTP_URL);
+// the server hands its secret to the jobs as JWT_SECRET; run directly, the job reads the same local one
+useMailSecretKey(dataSource, config.JWT_SECRET ?? localSecret('jwtSecret', 48));
 
 try {
   await dataSource.initialize();

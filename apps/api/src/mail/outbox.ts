@@ -2,9 +2,11 @@
 import { randomUUID } from 'node:crypto';
 import { createTransport } from 'nodemailer';
 import { LessThanOrEqual, type DataSource, type EntityManager } from 'typeorm';
-import { MailOutboxEntity, type MailAttachment } from '../entities/mail-outbox.entity';
+import { MailOutboxEntity, type MailAttachment, type MailTemplateValues } from '../entities/mail-outbox.entity';
 import type { Logger } from '../lib/logger';
-import { renderMail, resolveMailLocale, type MailTemplate, type MailTemplateData } from './render';
+import { renderMail, resolveMailLocale, type MailTemplate, type MailTemplateData, type RenderedMail } from './render';
+import { redactSecrets } from '../lib/redact';
+import { mailSecretKeyOf, MailSecretError, openSecretData, sealSecretData, splitSecretData } from './secret-data';
 
 /** Named MariaDB lock: with several API instances only the one holding it sends. */
 export const OUTBOX_LOCK = 'emberline.mail-outbox';
@@ -44,23 +46,33 @@ export interface EnqueueMail<T extends MailTemplate> {
   attachments?: MailAttachment[];
 }
 
+const fitSubject = (subject: string) => (subject.length > SUBJECT_MAX ? `${subject.slice(0, SUBJECT_MAX - 1)}…` : subject);
+/** What a sealed value is bound to: moved to another row or address, it no longer opens. */
+const sealContext = (row: Pick<MailOutboxEntity, 'id' | 'to'>) => `${row.id}\n${row.to}`;
+
 /**
  * Renders the message and inserts it into the outbox with `manager`, the caller's transaction,
- * so the mail exists exactly when the business change it reports commits.
+ * so the mail exists exactly when the business change it reports commits. Link tokens are
+ * redacted in everything stored in the clear (the mail log shows it to network admins); their
+ * real values are sealed with the data source's mail key until the message is sent.
  */
 export async function enqueueMail<T extends MailTemplate>(manager: EntityManager, mail: EnqueueMail<T>): Promise<MailOutboxEntity> {
   const locale = resolveMailLocale(mail.locale);
-  const rendered = renderMail(mail.template, locale, mail.data);
+  const { shown, secret } = splitSecretData(mail.data as unknown as Record<string, unknown>);
+  const rendered = renderMail(mail.template, locale, shown as unknown as MailTemplateData[T]);
+  const id = randomUUID();
   const now = new Date();
   const row = manager.create(MailOutboxEntity, {
-    id: randomUUID(),
+    id,
     to: mail.to,
     template: mail.template,
     locale,
-    subject: rendered.subject.length > SUBJECT_MAX ? `${rendered.subject.slice(0, SUBJECT_MAX - 1)}…` : rendered.subject,
+    subject: fitSubject(rendered.subject),
     text: rendered.text,
     html: rendered.html,
     attachments: mail.attachments?.length ? mail.attachments : null,
+    templateData: shown as MailTemplateValues,
+    secretData: secret ? sealSecretData(mailSecretKeyOf(manager), sealContext({ id, to: mail.to }), secret) : null,
     status: 'pending',
     attempts: 0,
     nextAttemptAt: now,
@@ -71,6 +83,26 @@ export async function enqueueMail<T extends MailTemplate>(manager: EntityManager
   });
   await manager.insert(MailOutboxEntity, row);
   return row;
+}
+
+/**
+ * The message as it is sent: rows with sealed link tokens are rendered again with the real
+ * values; others go out as stored. Throws MailSecretError when the seal does not open.
+ */
+export function outgoingContent(row: MailOutboxEntity, key: Buffer | null): RenderedMail {
+  if (!row.secretData) return { subject: row.subject, text: row.text, html: row.html };
+  if (!key) throw new MailSecretError('No mail secret key to open the message’s links with');
+  const data = { ...row.templateData, ...openSecretData(key, sealContext(row), row.secretData) };
+  const rendered = renderMail(row.template as MailTemplate, row.locale, data as unknown as MailTemplateData[MailTemplate]);
+  return { ...rendered, subject: fitSubject(rendered.subject) };
+}
+
+/**
+ * Once a message is sent or given up on, its sealed tokens are dropped; rows queued before tokens
+ * were redacted (no template data) have their stored text redacted then.
+ */
+function forgetSecrets(row: MailOutboxEntity): Partial<Pick<MailOutboxEntity, 'secretData' | 'subject' | 'text' | 'html'>> {
+  return row.templateData ? { secretData: null } : { secretData: null, subject: redactSecrets(row.subject), text: redactSecrets(row.text), html: redactSecrets(row.html) };
 }
 
 /**
@@ -85,13 +117,13 @@ export function mailRetryDelayMs(attempts: number): number {
 /** Errors that say the SMTP server is unreachable, rather than that it refused this one message. */
 const TRANSPORT_DOWN = new Set(['ECONNECTION', 'ETIMEDOUT', 'ESOCKET', 'EDNS', 'ETLS', 'EAUTH', 'ENOAUTH', 'EPROXY', 'ECONNREFUSED', 'ECONNRESET', 'EHOSTUNREACH']);
 
-/** A short, storable error text with any credentials in URLs or AUTH exchanges removed. */
+/** A short, storable error text with any credentials in URLs, AUTH exchanges or links removed. */
 export function describeMailError(err: unknown): string {
   const e = err as { code?: unknown; responseCode?: unknown; message?: unknown };
   const code = typeof e?.code === 'string' ? e.code : null;
   const responseCode = typeof e?.responseCode === 'number' ? e.responseCode : null;
   const message = typeof e?.message === 'string' ? e.message : String(err);
-  const text = [code, responseCode, message].filter((x) => x !== null && x !== '').join(': ')
+  const text = redactSecrets([code, responseCode, message].filter((x) => x !== null && x !== '').join(': '))
     .replace(/([a-z][a-z0-9+.-]*:\/\/)[^\s/@]*@/gi, '$1[redacted]@')
     .replace(/(AUTH\s+\S+)\s+\S+/gi, '$1 [redacted]')
     .replace(/\s+/g, ' ')
@@ -147,26 +179,38 @@ export async function processOutbox(options: ProcessOutboxOptions): Promise<Proc
       take: batchSize,
     });
     const domain = messageIdDomain(from);
+    const key = due.some((row) => row.secretData) ? secretKeyOrNull(dataSource) : null;
     for (const row of due) {
       const messageId = `<${row.id}@${domain}>`;
       const attempts = row.attempts + 1;
+      let content: RenderedMail;
+      try {
+        content = outgoingContent(row, key);
+      } catch (err) {
+        // sealed under another server secret (or none here): no retry can send working links
+        const lastError = describeMailError(err);
+        await runner.manager.update(MailOutboxEntity, { id: row.id }, { status: 'failed', attempts, lastError, ...forgetSecrets(row) });
+        result.failed++;
+        logger?.error({ outboxId: row.id, template: row.template, error: lastError }, 'gave up sending an e-mail whose links cannot be opened');
+        continue;
+      }
       try {
         const info = await transport.sendMail({
           from,
           to: row.to,
-          subject: row.subject,
-          text: row.text,
-          html: row.html,
+          subject: content.subject,
+          text: content.text,
+          html: content.html,
           messageId,
           headers: { [OUTBOX_ID_HEADER]: row.id },
           ...(row.attachments?.length ? { attachments: row.attachments.map((a) => ({ ...a, encoding: 'base64' as const })) } : {}),
         });
-        await runner.manager.update(MailOutboxEntity, { id: row.id }, { status: 'sent', attempts, sentAt: now, messageId: info.messageId ?? messageId, lastError: null });
+        await runner.manager.update(MailOutboxEntity, { id: row.id }, { status: 'sent', attempts, sentAt: now, messageId: info.messageId ?? messageId, lastError: null, ...forgetSecrets(row) });
         result.sent++;
       } catch (err) {
         const lastError = describeMailError(err);
         if (attempts >= MAX_MAIL_ATTEMPTS) {
-          await runner.manager.update(MailOutboxEntity, { id: row.id }, { status: 'failed', attempts, lastError });
+          await runner.manager.update(MailOutboxEntity, { id: row.id }, { status: 'failed', attempts, lastError, ...forgetSecrets(row) });
           result.failed++;
           logger?.error({ outboxId: row.id, template: row.template, attempts, error: lastError }, 'gave up sending an e-mail');
         } else {
@@ -190,6 +234,14 @@ export async function processOutbox(options: ProcessOutboxOptions): Promise<Proc
       });
     }
     await runner.release();
+  }
+}
+
+function secretKeyOrNull(dataSource: DataSource): Buffer | null {
+  try {
+    return mailSecretKeyOf(dataSource);
+  } catch {
+    return null;
   }
 }
 

@@ -2,6 +2,7 @@
 import type { MailLogEntry } from '@emberline/domain';
 import { AuditLogEntity, MailOutboxEntity, UserAccountEntity } from '../entities';
 import { newId } from '../lib/secure-token';
+import { redactSecrets } from '../lib/redact';
 import { audit } from './audit.service';
 import { hashPassword } from './auth.service';
 import type { ServiceContext } from '../lib/context';
@@ -11,18 +12,19 @@ export async function listMail(ctx: ServiceContext, filter: { status?: 'pending'
   if (filter.status) qb.andWhere('m.status = :status', { status: filter.status });
   if (filter.to) qb.andWhere('m.to_address LIKE :to', { to: `%${filter.to.replace(/[%_\\]/g, '\\$&')}%` });
   const rows = await qb.getMany();
+  // stored text is redacted already, except on rows queued before that and not yet sent
   return rows.map((m) => ({
     id: m.id,
     to: m.to,
-    subject: m.subject,
+    subject: redactSecrets(m.subject),
     template: m.template,
     status: m.status,
     attempts: m.attempts,
     lastError: m.lastError,
     createdAt: m.createdAt.toISOString(),
     sentAt: m.sentAt?.toISOString() ?? null,
-    text: m.text,
-    html: m.html,
+    text: redactSecrets(m.text),
+    html: redactSecrets(m.html),
   }));
 }
 

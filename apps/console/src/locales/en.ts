@@ -133,7 +133,7 @@ const en = {
   },
   mailLog: {
     title: 'Mail log',
-    lead: 'Every e-mail Emberline sends: confirmations, password links and invitations. Open a row to read the text and see the HTML version.',
+    lead: 'Every e-mail Emberline sends: confirmations, password links and invitations. Open a row to read the text and see the HTML version. Links that confirm an address, set a password or accept an invitation show [redacted] in place of their token: only the recipient gets the working link.',
     filterStatus: 'Status',
     anyStatus: 'Any status',
     filterTo: 'Recipient',
