@@ -1,7 +1,8 @@
 // The partner's bookings in the browser, on the demo data: Kaltstart Service Bayern's admin filters
 // the table, downloads the CSV, opens a requested booking and accepts it, sees it on the
-// technician's week and the dashboard's "Waiting for you"; the same screens at phone size. Every
-// screen is captured at desktop and phone size and checked with axe.
+// technician's week and the dashboard's "Waiting for you"; the same screens at phone size; a
+// technician sees only their own jobs. Every screen is captured at desktop and phone size and
+// checked with axe.
 import { afterAll, beforeAll, expect, it, onTestFailed } from 'vitest';
 import type { Page } from 'playwright-core';
 import { DEMO_PASSWORD } from '../../apps/api/src/db/seed/demo-data';
@@ -159,6 +160,27 @@ it('the same screens work on a phone', async () => {
   await screenshot(page, 'console-bookings-week-390');
   await expectAccessible(page, 'week on a phone');
 
+  expect(problems).toEqual([]);
+  await context.close();
+}, 120_000);
+
+it('a technician sees and downloads only the jobs assigned to them', async () => {
+  const { page, context, problems } = await openPage(h, DESKTOP);
+  onTestFailed(() => screenshot(page, 'console-bookings-technician-failed'));
+  await signInConsole(page, 'anja@kaltstart.example', '/bookings?from=');
+  await page.getByRole('heading', { name: 'Your jobs' }).waitFor();
+  await rows(page).first().waitFor();
+  const text = await page.getByTestId('bookings-table').innerText();
+  for (const ref of ['EMB-DEMOK1', 'EMB-DEMOK3', 'EMB-DEMOK5']) expect(text).toContain(ref);
+  for (const ref of ['EMB-DEMOK2', 'EMB-DEMOK4', 'EMB-DEMOK6']) expect(text).not.toContain(ref);
+  // nobody else's jobs to pick
+  expect(await page.getByLabel('Technician', { exact: true }).count()).toBe(0);
+  const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download CSV' }).click()]);
+  const csv = Buffer.concat((await (await download.createReadStream()).toArray()) as Buffer[]).toString('utf8');
+  expect(csv).toContain('EMB-DEMOK1');
+  expect(csv).not.toContain('EMB-DEMOK2');
+  await screenshot(page, 'console-bookings-technician-1440');
+  await expectAccessible(page, 'a technician\'s bookings');
   expect(problems).toEqual([]);
   await context.close();
 }, 120_000);
