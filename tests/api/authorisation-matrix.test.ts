@@ -18,7 +18,7 @@ import { scratchDatabase, type ScratchDatabase } from '../setup/scratch-database
 type Role = 'anonymous' | 'owner' | 'technician' | 'partnerAdmin' | 'networkAdmin';
 /** Partner admins last: what they may change (delete an offer) happens after the others were refused. */
 const ROLES: Role[] = ['anonymous', 'owner', 'technician', 'networkAdmin', 'partnerAdmin'];
-const COLUMN: Record<Role, number> = { anonymous: 0, owner: 1, technician: 2, partnerAdmin: 3, networkAdmin: 4 };
+const COLUMN = { anonymous: 0, owner: 1, technician: 2, partnerAdmin: 3, networkAdmin: 4 } as const satisfies Record<Role, number>;
 
 /**
  * - `ok`: allowed with the caller's own records (neither 401, 403 nor 404, nor a crash); where the
