@@ -58,7 +58,8 @@ async function retryingDeadlocks<T>(work: () => Promise<T>): Promise<T> {
  */
 export async function beginPasswordAttempt(manager: EntityManager, keys: ThrottleKeys, now = new Date()): Promise<{ addressFailures: number }> {
   const forgetBefore = new Date(now.getTime() - FORGET_AFTER_HOURS * 3_600_000);
-  const outcome = await retryingDeadlocks(() => manager.connection.transaction(async (m) => {
+  type Outcome = { waitSeconds: number } | { addressFailures: number };
+  const outcome = await retryingDeadlocks(() => manager.connection.transaction(async (m): Promise<Outcome> => {
     // a paused row is left as it is; otherwise one more failure (or the first of a fresh day)
     await m.query(
       `INSERT INTO sign_in_throttle (key_hash, failures, last_failure_at, blocked_until) VALUES (?, 1, ?, NULL)
