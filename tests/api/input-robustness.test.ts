@@ -85,6 +85,14 @@ describe('lone UTF-16 surrogates in text', () => {
     expect(await t.dataSource.query('SELECT COUNT(*) AS n FROM audit_log WHERE organisation_id = ?', [partner.orgId])).toEqual(before);
   });
 
+  it('checks a deeply nested body quickly (the check walks it without copying paths)', async () => {
+    const depth = 200_000;
+    const started = Date.now();
+    const res = await request(t.app).patch('/api/me').set(bearer(owner)).set('content-type', 'application/json').send(`{"name":"x","deep":${'['.repeat(depth)}"\\ud800"${']'.repeat(depth)}}`);
+    expectProblem(res, 400);
+    expect(Date.now() - started).toBeLessThan(5_000);
+  });
+
   it('takes a well-formed pair (an emoji) as before', async () => {
     const res = await request(t.app).patch('/api/me').set(bearer(owner)).send({ name: 'Clara Innerhofer \u{1F525}' });
     expect(res.status, res.text).toBe(200);

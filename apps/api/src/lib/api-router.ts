@@ -75,16 +75,23 @@ const MAX_TEXT_ERRORS = 20;
  * Walks without recursion, so a deeply nested body cannot overflow the stack.
  */
 export function malformedTextErrors(value: unknown, prefix?: string): FieldError[] {
+  // each node links to its parent: copying paths would cost depth² on a deeply nested body
+  type Node = { value: unknown; key?: string; parent?: Node };
+  const pathOf = (node: Node | undefined): string => {
+    const keys: string[] = [];
+    for (let n = node; n?.key !== undefined; n = n.parent) keys.push(n.key);
+    return [prefix, ...keys.reverse()].filter(Boolean).join('.');
+  };
   const errors: FieldError[] = [];
-  const stack: Array<[unknown, string[]]> = [[value, prefix ? [prefix] : []]];
+  const stack: Node[] = [{ value }];
   while (stack.length && errors.length < MAX_TEXT_ERRORS) {
-    const [item, path] = stack.pop()!;
-    if (typeof item === 'string') {
-      if (LONE_SURROGATE.test(item)) errors.push({ path: path.join('.'), message: 'This text contains an invalid character (a lone UTF-16 surrogate)' });
-    } else if (item && typeof item === 'object') {
-      for (const [key, child] of Object.entries(item)) {
-        if (LONE_SURROGATE.test(key)) errors.push({ path: path.join('.'), message: 'A field name contains an invalid character (a lone UTF-16 surrogate)' });
-        else stack.push([child, [...path, key]]);
+    const node = stack.pop()!;
+    if (typeof node.value === 'string') {
+      if (LONE_SURROGATE.test(node.value)) errors.push({ path: pathOf(node), message: 'This text contains an invalid character (a lone UTF-16 surrogate)' });
+    } else if (node.value && typeof node.value === 'object') {
+      for (const [key, child] of Object.entries(node.value)) {
+        if (LONE_SURROGATE.test(key)) errors.push({ path: pathOf(node), message: 'A field name contains an invalid character (a lone UTF-16 surrogate)' });
+        else stack.push({ value: child, key, parent: node });
       }
     }
   }

@@ -56,7 +56,8 @@ export const LocalTimeSchema = z
 export const LocalDateSchema = z
   .string({ error: 'Enter a date as YYYY-MM-DD' })
   .regex(LOCAL_DATE, 'Enter a date as YYYY-MM-DD')
-  .refine((v) => DateTime.fromISO(v, { zone: 'utc' }).isValid, 'This date does not exist');
+  // a malformed date already has its message from the pattern; this one is for 2031-02-31
+  .refine((v) => !LOCAL_DATE.test(v) || DateTime.fromISO(v, { zone: 'utc' }).isValid, 'This date does not exist');
 
 export const InstantSchema = z.iso.datetime({ offset: true, error: 'Enter a date and time with a UTC offset, e.g. 2026-03-29T09:00:00+02:00' });
 const isInstant = (v: unknown): v is string => InstantSchema.safeParse(v).success;
