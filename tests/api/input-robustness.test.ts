@@ -194,6 +194,12 @@ describe('serving the built apps', () => {
     expect(res.text).not.toMatch(/\n\s+at /);
   });
 
+  it('allows styles only from this origin (and inline, for the UI kit), not from any https: host', async () => {
+    const csp = String((await request(served.app).get('/search').expect(200)).headers['content-security-policy']);
+    const styleSrc = csp.split(';').map((d) => d.trim()).find((d) => d.startsWith('style-src'));
+    expect(styleSrc?.split(/\s+/).sort()).toEqual(["'self'", "'unsafe-inline'", 'style-src'].sort());
+  });
+
   it('still serves assets and both apps', async () => {
     await request(served.app).get('/assets/app-1.js').expect(200);
     expect((await request(served.app).get('/search').expect(200)).text).toContain('directory');

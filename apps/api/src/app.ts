@@ -104,6 +104,10 @@ export function createApp(deps: AppDeps): EmberlineApp {
         directives: {
           'img-src': ["'self'", 'data:', 'blob:'],
           'connect-src': ["'self'"],
+          // No stylesheet comes from elsewhere, so no https:. 'unsafe-inline' stays for now: ant-design-vue's
+          // CSS-in-JS injects <style> elements, which 'self' alone blocks (the Console loses its styles).
+          // Dropping it needs a per-response nonce in the served index.html passed to ConfigProvider's `csp`.
+          'style-src': ["'self'", "'unsafe-inline'"],
           'upgrade-insecure-requests': https ? [] : null,
         },
       },
