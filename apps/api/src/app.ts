@@ -104,9 +104,10 @@ export function createApp(deps: AppDeps): EmberlineApp {
         directives: {
           'img-src': ["'self'", 'data:', 'blob:'],
           'connect-src': ["'self'"],
-          // No stylesheet comes from elsewhere, so no https:. 'unsafe-inline' stays for now: ant-design-vue's
-          // CSS-in-JS injects <style> elements, which 'self' alone blocks (the Console loses its styles).
-          // Dropping it needs a per-response nonce in the served index.html passed to ConfigProvider's `csp`.
+          // No stylesheet comes from elsewhere, so no https:. 'unsafe-inline' stays: ant-design-vue's CSS-in-JS
+          // injects <style> elements, which 'self' alone blocks (the Console loses its styles), and in 4.2 its
+          // component style hooks never pass ConfigProvider's `csp` nonce on; the styles depend on the theme, so
+          // hashes would break with every token change. Dropping it means extracting the styles at build time.
           'style-src': ["'self'", "'unsafe-inline'"],
           'upgrade-insecure-requests': https ? [] : null,
         },
