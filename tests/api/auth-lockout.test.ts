@@ -36,6 +36,20 @@ async function pausedFor(email: string, ip: string): Promise<number> {
 const endPause = (email: string, ip: string) =>
   a.dataSource.query('UPDATE sign_in_throttle SET blocked_until = UTC_TIMESTAMP(3) - INTERVAL 1 SECOND WHERE key_hash = ?', [throttleKeys(email, ip).pair]);
 
+describe('sign-in rate limit as configured by default', () => {
+  it("does not let a stranger's guesses from a few addresses stop the owner signing in", async () => {
+    // the default limits (no override): the per-address limit must sit above what the throttle allows a stranger
+    const t = await createTestApp(env, { limits: { reset: lifted, invitation: lifted } });
+    try {
+      const owner = await signUpAndVerify(t.app, t.dataSource, 'owner');
+      for (let i = 0; i < 30; i++) await signInFrom(t, `203.0.113.${100 + (i % 5)}`, owner.email, `guess-number-${i}`);
+      await signInFrom(t, '198.51.100.200', owner.email, GOOD_PASSWORD).expect(200);
+    } finally {
+      await t.close();
+    }
+  });
+});
+
 describe('sign-in throttle', () => {
   it('answers a known and an unknown address identically through eleven failures', async () => {
     const known = (await signUpAndVerify(a.app, a.dataSource, 'owner')).email;

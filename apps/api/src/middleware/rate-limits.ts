@@ -29,7 +29,9 @@ export interface LimitSettings {
 }
 
 export const DEFAULT_LIMITS: LimitSettings = {
-  signIn: { perIp: 50, perAccount: 20, windowMinutes: 15 },
+  // per address well above what the sign-in throttle lets a stranger try (5 a pair, then growing
+  // pauses), so guesses from a few addresses cannot stop the owner signing in
+  signIn: { perIp: 50, perAccount: 200, windowMinutes: 15 },
   signUp: { perIp: 20, perAccount: 5, windowMinutes: 60 },
   reset: { perIp: 20, perAccount: 5, windowMinutes: 60 },
   invitation: { perIp: 60, perAccount: 30, windowMinutes: 60 },
