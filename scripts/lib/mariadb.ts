@@ -17,7 +17,8 @@ export interface MariaDbInstance {
 
 export class MariaDbError extends Error {}
 
-const alive = (pid: number) => {
+/** Whether a process with this pid still runs (signal 0 only checks). */
+export const alive = (pid: number) => {
   try {
     process.kill(pid, 0);
     return true;

@@ -2,7 +2,7 @@
 // for a condition, and the figures each fault test prints.
 import { existsSync, readFileSync } from 'node:fs';
 import { inject } from 'vitest';
-import { paths, startMariaDb } from '../../scripts/lib/mariadb';
+import { alive, paths, startMariaDb } from '../../scripts/lib/mariadb';
 
 type TestDb = ReturnType<typeof inject<'db'>>;
 
@@ -15,15 +15,6 @@ export function currentDbPid(db: TestDb = inject('db')): number {
   const pid = existsSync(file) ? Number(readFileSync(file, 'utf8').trim()) : NaN;
   return Number.isInteger(pid) && pid > 0 ? pid : db.pid;
 }
-
-const alive = (pid: number) => {
-  try {
-    process.kill(pid, 0);
-    return true;
-  } catch {
-    return false;
-  }
-};
 
 /** Kills the test MariaDB by its pid and waits until the process is gone. */
 export async function killDb(signal: NodeJS.Signals, db: TestDb = inject('db')): Promise<number> {
