@@ -89,7 +89,7 @@ describe('seed', () => {
     await t.dataSource.query("UPDATE capability SET name = 'Edited by an admin' WHERE code = 'digital-multimeter'");
     const before = await t.dataSource.query('SELECT COUNT(*) AS n FROM service_type_capability');
     const report = await runSeed(t.dataSource.manager, { bcryptCost: 4 });
-    expect(report).toEqual({ capabilitiesAdded: 0, serviceTypesAdded: 0, eligibilityRulesAdded: 0, usersAdded: 0, organisationsAdded: 0, profilesAdded: 0, documentsAdded: 0 });
+    expect(report).toEqual({ demo: 'seeded', capabilitiesAdded: 0, serviceTypesAdded: 0, eligibilityRulesAdded: 0, usersAdded: 0, organisationsAdded: 0, profilesAdded: 0, documentsAdded: 0 });
     expect(await t.dataSource.query('SELECT COUNT(*) AS n FROM service_type_capability')).toEqual(before);
     const [row] = await t.dataSource.query("SELECT name FROM capability WHERE code = 'digital-multimeter'");
     expect(row.name).toBe('Edited by an admin');
