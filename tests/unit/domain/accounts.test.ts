@@ -1,6 +1,6 @@
-// Password rules shared by the forms and the API.
+// Password rules shared by the forms and the API, and who sees an organisation's bookings.
 import { describe, expect, it } from 'vitest';
-import { OwnerSignUpSchema, PASSWORD_IS_EMAIL_MESSAGE, passwordMatchesEmail, passwordProblems } from '@emberline/domain';
+import { OwnerSignUpSchema, PASSWORD_IS_EMAIL_MESSAGE, passwordMatchesEmail, passwordProblems, seesAllOrganisationBookings } from '@emberline/domain';
 
 describe('password rules', () => {
   it('accepts a long, uncommon password', () => {
@@ -28,5 +28,16 @@ describe('password rules', () => {
     const r = OwnerSignUpSchema.safeParse({ name: 'A', email: 'someone.long@example.org', password: 'someone.long@example.org' });
     expect(r.success).toBe(false);
     expect(r.error!.issues.find((i) => i.message === PASSWORD_IS_EMAIL_MESSAGE)?.path).toEqual(['password']);
+  });
+});
+
+describe('seesAllOrganisationBookings', () => {
+  it('gives partner admins and network admins every booking, a technician only their own', () => {
+    expect(seesAllOrganisationBookings(['partner_admin'])).toBe(true);
+    expect(seesAllOrganisationBookings(['network_admin'])).toBe(true);
+    expect(seesAllOrganisationBookings(['owner', 'partner_admin'])).toBe(true);
+    expect(seesAllOrganisationBookings(['technician'])).toBe(false);
+    expect(seesAllOrganisationBookings(['owner', 'technician'])).toBe(false);
+    expect(seesAllOrganisationBookings([])).toBe(false);
   });
 });

@@ -5,6 +5,7 @@ import { randomInt } from 'node:crypto';
 import { z } from 'zod';
 import {
   HOLD_MINUTES,
+  seesAllOrganisationBookings,
   type Booking,
   type BookingDecision,
   type BookingListQuerySchema,
@@ -299,14 +300,10 @@ const orgScope = (ctx: ServiceContext) => {
   return { organisationId: ctx.actor.organisationId };
 };
 
-/**
- * The technician whose jobs alone the caller may read, or null for every booking of the
- * organisation. A booking carries the customer's name, e-mail, phone and address, so only partner
- * admins (and network admins) see them all; anyone else sees the jobs assigned to them.
- */
+/** The technician whose jobs alone the caller may read, or null for every booking of the organisation. */
 function assignedTechnician(ctx: ServiceContext): string | null {
   const { roles, userId } = ctx.actor;
-  if (roles.includes('partner_admin') || roles.includes('network_admin')) return null;
+  if (seesAllOrganisationBookings(roles)) return null;
   if (!userId) throw new Error('bookings service called without a signed-in caller');
   return userId;
 }

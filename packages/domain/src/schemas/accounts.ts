@@ -11,6 +11,13 @@ export const MEMBER_ROLES = ['partner_admin', 'technician'] as const;
 export const MemberRoleSchema = z.enum(MEMBER_ROLES);
 export type MemberRole = z.infer<typeof MemberRoleSchema>;
 
+/**
+ * Whether these roles see every booking of an organisation. A booking carries the customer's
+ * name, e-mail, phone and address, so only partner admins and network admins see them all;
+ * anyone else (a technician) sees the jobs assigned to them.
+ */
+export const seesAllOrganisationBookings = (roles: readonly Role[]): boolean => roles.includes('partner_admin') || roles.includes('network_admin');
+
 export const ORGANISATION_STATUSES = ['draft', 'submitted', 'in_review', 'changes_requested', 'approved', 'rejected', 'suspended'] as const;
 export const OrganisationStatusSchema = z.enum(ORGANISATION_STATUSES);
 export type OrganisationStatus = z.infer<typeof OrganisationStatusSchema>;
