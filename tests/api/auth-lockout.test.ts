@@ -61,7 +61,12 @@ describe('sign-in throttle', () => {
       expect([i, k.status], `attempt ${i}`).toEqual([i, u.status]);
       expect(withoutIds(k.body), `attempt ${i}`).toEqual(withoutIds(u.body));
       expect(k.status).toBe(i <= FREE_FAILURES ? 401 : 429);
-      if (k.status === 429) expect(k.body.code).toBe('SIGN_IN_PAUSED');
+      if (k.status === 429) {
+        expect(k.body.code).toBe('SIGN_IN_PAUSED');
+        // the first pause is a minute: the client is told when to come back
+        expect(Number(k.headers['retry-after'])).toBeGreaterThan(0);
+        expect(Number(k.headers['retry-after'])).toBeLessThanOrEqual(60);
+      }
     }
     // paused is paused: the right password waits too, and says nothing more
     const right = await signInFrom(a, ip, known, GOOD_PASSWORD).expect(429);

@@ -2,6 +2,9 @@
 import type { FieldError } from '@emberline/domain';
 
 export class HttpError extends Error {
+  /** Seconds the client should wait before trying again; sent as Retry-After. */
+  retryAfterSeconds?: number;
+
   constructor(
     readonly code: string,
     readonly status: number,

@@ -69,6 +69,7 @@ export const problemDetails: ErrorRequestHandler = (err, req, res, _next) => {
     requestId: requestId || undefined,
   };
   // a 503 is temporary by definition: tell clients (and the payments provider's webhooks) when to come back
-  if (problem.status === 503 && !res.get('Retry-After')) res.set('Retry-After', String(DATABASE_RETRY_AFTER_SECONDS));
+  const retryAfter = problem.retryAfterSeconds ?? (problem.status === 503 ? DATABASE_RETRY_AFTER_SECONDS : undefined);
+  if (retryAfter !== undefined && !res.get('Retry-After')) res.set('Retry-After', String(Math.ceil(retryAfter)));
   res.status(problem.status).type(PROBLEM_CONTENT_TYPE).send(JSON.stringify(body));
 };

@@ -82,7 +82,9 @@ export async function beginPasswordAttempt(manager: EntityManager, keys: Throttl
   }));
   if ('waitSeconds' in outcome) {
     const minutes = Math.max(1, Math.ceil(outcome.waitSeconds / 60));
-    throw SignInPaused(`Too many failed attempts from here: please wait ${minutes} minute(s) before you try again, or reset your password.`);
+    const paused = SignInPaused(`Too many failed attempts from here: please wait ${minutes} minute(s) before you try again, or reset your password.`);
+    paused.retryAfterSeconds = outcome.waitSeconds;
+    throw paused;
   }
   return outcome;
 }
