@@ -28,9 +28,6 @@ export class UserAccountEntity {
   @Column({ type: 'datetime', precision: 3, nullable: true })
   emailVerifiedAt!: Date | null;
 
-  @Column({ type: 'smallint', unsigned: true, default: 0 })
-  failedSignIns!: number;
-
   @Column({ type: 'datetime', precision: 3, nullable: true })
   lockedUntil!: Date | null;
 

@@ -69,7 +69,6 @@ export async function createNetworkAdmin(
     isOwner: false,
     isNetworkAdmin: true,
     emailVerifiedAt: new Date(),
-    failedSignIns: 0,
     lockedUntil: null,
   });
   await audit(ctx, { action: 'user.create-network-admin', entityType: 'user', entityId: id, after: { email: input.email, name: input.name } });

@@ -98,7 +98,6 @@ async function createUser(manager: EntityManager, input: { name: string; email: 
     isOwner: false,
     isNetworkAdmin: false,
     emailVerifiedAt: null,
-    failedSignIns: 0,
     lockedUntil: null,
     ...flags,
   });
@@ -234,7 +233,6 @@ export async function resetPassword(ctx: ServiceContext, input: { token: string;
     // every access token issued before
     {
       passwordHash: await hashPassword(input.password, settings.bcryptCost),
-      failedSignIns: 0,
       lockedUntil: null,
       emailVerifiedAt: user.emailVerifiedAt ?? new Date(),
       tokenVersion: () => 'token_version + 1',

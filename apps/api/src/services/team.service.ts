@@ -169,7 +169,6 @@ export async function acceptInvitation(ctx: ServiceContext, input: AcceptInput, 
       isOwner: false,
       isNetworkAdmin: false,
       emailVerifiedAt: new Date(),
-      failedSignIns: 0,
       lockedUntil: null,
     });
     await users.save(user);

@@ -107,7 +107,6 @@ export async function seedDemo(manager: EntityManager, bcryptCost: number, o: { 
         isOwner: false,
         isNetworkAdmin: false,
         emailVerifiedAt: new Date(),
-        failedSignIns: 0,
         lockedUntil: null,
         ...flags,
       }),
