@@ -1,6 +1,7 @@
 // `npm run bench`: the benchmarks the issues name: the slot engine, the Directory search against a
 // generated network of 10,000 partners (scripts/lib/bench-search.ts), 50 owners racing for 10
-// booking starts (scripts/lib/bench-booking.ts), and a warm `npm start`
+// booking starts (scripts/lib/bench-booking.ts), 20 concurrent sign-ins while searches run
+// (scripts/lib/bench-sign-in.ts), and a warm `npm start`
 // (packages and MariaDB installed, apps built) until /api/health answers 200, median of 5 runs.
 import { spawn, spawnSync } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
@@ -8,6 +9,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { benchBooking } from './lib/bench-booking';
 import { benchSearch } from './lib/bench-search';
+import { benchSignIn } from './lib/bench-sign-in';
 import { waitForHttp } from './lib/net';
 import { step } from './lib/output';
 import { root, varDir } from './lib/project';
@@ -37,6 +39,11 @@ if (wants('slots')) {
 if (wants('search')) {
   step('Directory search: 10,000 partners, 50,000 offers, 500 searches and 10 s of load');
   await benchSearch();
+}
+
+if (wants('sign-in')) {
+  step('Sign-in under load: 20 owners at the same moment while searches run');
+  await benchSignIn();
 }
 
 if (wants('booking')) {

@@ -10,7 +10,7 @@ import path from 'node:path';
 import autocannon, { type Result } from 'autocannon';
 import { migrateAndSeed } from '../../apps/api/src/db/migrate';
 import { createDataSource } from '../../apps/api/src/db/data-source';
-import { EUROPE, generateNetwork, random, randomPlace } from '../../tests/bench/search-data';
+import { EUROPE, generateNetwork, random, randomPlace, type BenchNetwork } from '../../tests/bench/search-data';
 import { ensureDatabase, startMariaDb } from './mariadb';
 import { waitForHttp } from './net';
 import { ok, step } from './output';
@@ -26,7 +26,7 @@ const percentile = (sorted: number[], p: number) => sorted[Math.min(sorted.lengt
 const round = (v: number, digits = 1) => Math.round(v * 10 ** digits) / 10 ** digits;
 
 /** Random searches: any service type at a random place, some with vehicle details, most sorted by best match. */
-function searchPaths(count: number, serviceTypes: string[], seed: number): string[] {
+export function searchPaths(count: number, serviceTypes: string[], seed: number): string[] {
   const rnd = random(seed);
   const pick = <T>(list: readonly T[]) => list[Math.floor(rnd() * list.length)]!;
   return Array.from({ length: count }, () => {
@@ -39,7 +39,7 @@ function searchPaths(count: number, serviceTypes: string[], seed: number): strin
   });
 }
 
-async function startServer(env: NodeJS.ProcessEnv, port: number): Promise<ChildProcess> {
+export async function startServer(env: NodeJS.ProcessEnv, port: number): Promise<ChildProcess> {
   const child = spawn(process.execPath, [...(process.env.BENCH_CPU_PROF ? ['--cpu-prof', '--cpu-prof-dir', path.join(root, 'var/bench/prof')] : []), '--import', 'tsx', path.join(root, 'tests/bench/search-server.ts')], { cwd: root, env: { ...env, PORT: String(port) }, stdio: ['ignore', 'ignore', 'inherit'] });
   const status = await waitForHttp(`http://127.0.0.1:${port}/api/health`, 60_000);
   if (status !== 200) {
@@ -76,7 +76,7 @@ interface LoadTotals {
 }
 
 /** CPU time (user + system) a process has used so far, ms; 0 where /proc is not there. */
-function cpuMsOf(pid: number | undefined): number {
+export function cpuMsOf(pid: number | undefined): number {
   if (!pid || !existsSync(`/proc/${pid}/stat`)) return 0;
   const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
   // utime and stime, in clock ticks of 10 ms on Linux
@@ -107,12 +107,22 @@ async function loadInTurns(url: string, runs: Record<'search' | 'health', string
   return totals;
 }
 
-export async function benchSearch(): Promise<void> {
+export interface BenchNetworkDb {
+  db: Awaited<ReturnType<typeof startMariaDb>>;
+  /** The bench database's connection settings, for createDataSource and migrateAndSeed. */
+  config: { DB_HOST: string; DB_PORT: number; DB_NAME: string; DB_USER: string; DB_PASSWORD: string; DB_POOL_SIZE: number };
+  /** What the bench server process gets. */
+  env: NodeJS.ProcessEnv;
+  generated: BenchNetwork | null;
+  serviceTypes: string[];
+}
+
+/** Starts the bench MariaDB and makes sure it holds the complete generated network (stop `db` when done). */
+export async function openBenchNetwork(): Promise<BenchNetworkDb> {
   const settings = benchDatabase();
   step(`Bench MariaDB on 127.0.0.1:${settings.port} (data in ${path.relative(root, settings.dir)}/), database ${settings.name}`);
   const db = await startMariaDb(settings.dir, settings.port);
   const env = { ...process.env, ...dbEnv(settings), DB_POOL_SIZE: '10', LOG_LEVEL: 'warn', RUN_SCHEDULER: 'false', SERVE_APPS: 'false', NODE_ENV: 'development', PUBLIC_URL: 'http://127.0.0.1' };
-  let server: ChildProcess | undefined;
   try {
     // reuse the generated network when it is complete; otherwise start from an empty database
     const config = { DB_HOST: '127.0.0.1', DB_PORT: settings.port, DB_NAME: settings.name, DB_USER: settings.user, DB_PASSWORD: settings.password, DB_POOL_SIZE: 4 };
@@ -139,7 +149,17 @@ export async function benchSearch(): Promise<void> {
     await ds.query('DELETE FROM coverage_gap_search');
     const serviceTypes = ((await ds.query('SELECT code FROM service_type WHERE retired = 0 ORDER BY code')) as { code: string }[]).map((r) => r.code);
     await ds.destroy();
+    return { db, config, env, generated, serviceTypes };
+  } catch (error) {
+    if (db.startedHere) await db.stop();
+    throw error;
+  }
+}
 
+export async function benchSearch(): Promise<void> {
+  const { db, env, generated, serviceTypes } = await openBenchNetwork();
+  let server: ChildProcess | undefined;
+  try {
     const port = Number(process.env.BENCH_PORT ?? 4010);
     server = await startServer(env, port);
     const base = `http://127.0.0.1:${port}`;
