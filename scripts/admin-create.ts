@@ -3,6 +3,7 @@
 import { randomBytes } from 'node:crypto';
 import { parseArgs } from 'node:util';
 import { EmailSchema, NameSchema, PasswordSchema } from '@emberline/domain';
+import { loadSeedSettings } from '../apps/api/src/config';
 import { createDataSource } from '../apps/api/src/db/data-source';
 import { migrateAndSeed } from '../apps/api/src/db/migrate';
 import { createNetworkAdmin } from '../apps/api/src/services/admin.service';
@@ -18,6 +19,7 @@ if (!email.success || !name.success) failAndExit('Usage: npm run admin:create --
 const password = values.password ?? randomBytes(12).toString('base64url');
 const strong = PasswordSchema.safeParse(password);
 if (!strong.success) failAndExit(`--password: ${strong.error.issues[0]!.message}`, 2);
+const { PASSWORD_HASH_COST } = loadSeedSettings();
 
 ensureSystemPackages([MARIADB]);
 const settings = devDatabase();
@@ -29,7 +31,7 @@ try {
   const ds = await createDataSource(dbConfig).initialize();
   try {
     const outcome = await ds.transaction((manager) =>
-      createNetworkAdmin({ manager, actor: { userId: null, roles: [], organisationId: null } }, { email: email.data, name: name.data, password, bcryptCost: 12 }),
+      createNetworkAdmin({ manager, actor: { userId: null, roles: [], organisationId: null } }, { email: email.data, name: name.data, password, passwordHashCost: PASSWORD_HASH_COST }),
     );
     if (outcome === 'promoted') ok(`${email.data} is now a network admin (password unchanged).`);
     else ok(`Network admin ${email.data} created.${values.password ? '' : ` Password: ${password}  (shown once: change it after signing in)`}`);

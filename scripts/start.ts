@@ -105,7 +105,7 @@ try {
   db = await startMariaDb(settings.dir, settings.port);
   ok(db.startedHere ? `MariaDB started (pid ${db.pid})` : `MariaDB already running (pid ${db.pid}), reusing it`);
   ensureDatabase(db, settings);
-  const report = await migrateAndSeed(config, { bcryptCost: config.BCRYPT_COST });
+  const report = await migrateAndSeed(config, { passwordHashCost: config.PASSWORD_HASH_COST });
   const seeded = report.seed;
   ok(`Database ready: ${report.migrationsRun.length} migration(s) run; seed added ${seeded?.capabilitiesAdded ?? 0} capabilities, ${seeded?.serviceTypesAdded ?? 0} service types, ${seeded?.organisationsAdded ?? 0} organisations, ${seeded?.usersAdded ?? 0} people`);
   if (seeded?.demo === 'refused-in-production') warn(DEMO_REFUSED_MESSAGE);

@@ -46,12 +46,12 @@ describe('creating network admins (npm run admin:create)', () => {
   it('creates a new admin who can sign in, and promotes an existing account keeping its password', async () => {
     const actor = { userId: null, roles: [], organisationId: null };
     const email = uniqueEmail('newadmin');
-    expect(await t.dataSource.transaction((manager) => createNetworkAdmin({ manager, actor }, { email, name: 'New Admin', password: 'a-strong-admin-pass', bcryptCost: 4 }))).toBe('created');
+    expect(await t.dataSource.transaction((manager) => createNetworkAdmin({ manager, actor }, { email, name: 'New Admin', password: 'a-strong-admin-pass', passwordHashCost: 4 }))).toBe('created');
     const s = await signIn(t.app, email, 'a-strong-admin-pass');
     await request(t.app).get('/api/admin/mail-log').auth(s.accessToken, { type: 'bearer' }).expect(200);
 
     const owner = await signUpAndVerify(t.app, t.dataSource, 'owner');
-    expect(await t.dataSource.transaction((manager) => createNetworkAdmin({ manager, actor }, { email: owner.email, name: 'Ignored', password: 'unused-password-x', bcryptCost: 4 }))).toBe('promoted');
+    expect(await t.dataSource.transaction((manager) => createNetworkAdmin({ manager, actor }, { email: owner.email, name: 'Ignored', password: 'unused-password-x', passwordHashCost: 4 }))).toBe('promoted');
     const promoted = await signIn(t.app, owner.email, 'winter-glow-pin-42');
     expect(promoted.body.data.user).toMatchObject({ roles: ['owner', 'network_admin'] });
     const [row] = await t.dataSource.query("SELECT COUNT(*) AS n FROM audit_log WHERE action IN ('user.create-network-admin', 'user.grant-network-admin') AND entity_id IN (?, ?)", [s.userId, owner.userId]);

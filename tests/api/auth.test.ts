@@ -3,8 +3,10 @@
 import jwt from 'jsonwebtoken';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { loadConfig } from '../../apps/api/src/config';
-import { hashPassword } from '../../apps/api/src/services/auth.service';
+import bcrypt from 'bcryptjs';
+import { loadConfig, loadSeedSettings } from '../../apps/api/src/config';
+import { UserAccountEntity } from '../../apps/api/src/entities';
+import { verifyPassword } from '../../apps/api/src/lib/password-hash';
 import { DEMO_PASSWORD } from '../../apps/api/src/db/seed/demo-data';
 import { createTestApp, TEST_JWT_SECRET, type TestApp } from '../setup/app';
 import { GOOD_PASSWORD, linkFromMail, signIn, signUpAndVerify, tokenOf, uniqueEmail } from '../setup/accounts';
@@ -67,11 +69,13 @@ describe('owner sign-up and e-mail verification', () => {
     expect(again.body.code).toBe('INVALID_LINK');
   });
 
-  it('hashes with bcrypt at cost 12 by default', async () => {
-    const config = loadConfig({ DB_PASSWORD: 'x' });
-    expect(config.BCRYPT_COST).toBe(12);
-    expect(await hashPassword('a-long-password', config.BCRYPT_COST)).toMatch(/^\$2[aby]\$12\$/);
-    expect(() => loadConfig({ DB_PASSWORD: 'x', BCRYPT_COST: '10' })).toThrow(/BCRYPT_COST/);
+  it("hashes with scrypt at OWASP's cost (N = 2^17) by default, lower only in tests", () => {
+    expect(loadConfig({ DB_PASSWORD: 'x' }).PASSWORD_HASH_COST).toBe(17);
+    expect(() => loadConfig({ DB_PASSWORD: 'x', PASSWORD_HASH_COST: '16' })).toThrow(/PASSWORD_HASH_COST/);
+    // the variable's old name still sets it, and is held to the same floor
+    expect(loadConfig({ DB_PASSWORD: 'x', NODE_ENV: 'test', BCRYPT_COST: '4' }).PASSWORD_HASH_COST).toBe(4);
+    expect(() => loadConfig({ DB_PASSWORD: 'x', BCRYPT_COST: '12' })).toThrow(/PASSWORD_HASH_COST/);
+    expect(loadSeedSettings({ NODE_ENV: 'test', PASSWORD_HASH_COST: '4' }).PASSWORD_HASH_COST).toBe(4);
   });
 });
 
@@ -85,6 +89,24 @@ describe('sign-in', () => {
     const wrong = await request(t.app).post('/api/auth/sign-in').send({ email: 'max@owners.example', password: 'not-the-password' }).expect(401);
     const unknown = await request(t.app).post('/api/auth/sign-in').send({ email: uniqueEmail('ghost'), password: 'not-the-password' }).expect(401);
     expect(withoutIds(wrong.body)).toEqual(withoutIds(unknown.body));
+  });
+
+  it('signs in with a bcrypt hash from before scrypt and then stores the password as scrypt', async () => {
+    const { email, userId } = await signUpAndVerify(t.app, t.dataSource, 'owner');
+    const users = t.dataSource.getRepository(UserAccountEntity);
+    const legacy = await bcrypt.hash(GOOD_PASSWORD, 4);
+    await users.update({ id: userId }, { passwordHash: legacy });
+
+    // a wrong password leaves the old hash where it is
+    await request(t.app).post('/api/auth/sign-in').send({ email, password: 'not-the-password' }).expect(401);
+    expect((await users.findOneByOrFail({ id: userId })).passwordHash).toBe(legacy);
+
+    await signIn(t.app, email, GOOD_PASSWORD);
+    const stored = (await users.findOneByOrFail({ id: userId })).passwordHash;
+    expect(stored).toMatch(/^\$scrypt\$ln=4,r=8,p=1\$/);
+    expect(await verifyPassword(GOOD_PASSWORD, stored)).toBe(true);
+    await signIn(t.app, email, GOOD_PASSWORD);
+    expect((await users.findOneByOrFail({ id: userId })).passwordHash).toBe(stored);
   });
 
   // guessing, pauses and the account lock: tests/api/auth-lockout.test.ts

@@ -291,7 +291,7 @@ beforeAll(async () => {
   scratch = scratchDatabase('authz');
   uploads = mkdtempSync(path.join(tmpdir(), 'emberline-authz-'));
   const storage = new LocalDiskStorage(uploads);
-  await migrateAndSeed({ ...scratch.db, NODE_ENV: 'test' }, { bcryptCost: 4, storage });
+  await migrateAndSeed({ ...scratch.db, NODE_ENV: 'test' }, { passwordHashCost: 4, storage });
   t = await createTestApp(scratch.env, { storage });
   who = {
     owner: await signIn(t.app, 'clara@owners.example', DEMO_PASSWORD),

@@ -88,7 +88,7 @@ describe('seed', () => {
   it('is idempotent: a second run adds nothing and leaves admin edits alone', async () => {
     await t.dataSource.query("UPDATE capability SET name = 'Edited by an admin' WHERE code = 'digital-multimeter'");
     const before = await t.dataSource.query('SELECT COUNT(*) AS n FROM service_type_capability');
-    const report = await runSeed(t.dataSource.manager, { bcryptCost: 4 });
+    const report = await runSeed(t.dataSource.manager, { passwordHashCost: 4 });
     expect(report).toEqual({ demo: 'seeded', capabilitiesAdded: 0, serviceTypesAdded: 0, eligibilityRulesAdded: 0, usersAdded: 0, organisationsAdded: 0, profilesAdded: 0, documentsAdded: 0 });
     expect(await t.dataSource.query('SELECT COUNT(*) AS n FROM service_type_capability')).toEqual(before);
     const [row] = await t.dataSource.query("SELECT name FROM capability WHERE code = 'digital-multimeter'");

@@ -40,7 +40,7 @@ afterAll(async () => {
 
 describe('the demo seed in production', () => {
   it('is left out when NODE_ENV is production, while the catalogue is seeded', async () => {
-    const report = await migrateAndSeed({ ...scratch.db, NODE_ENV: 'production' }, { bcryptCost: 4, storage });
+    const report = await migrateAndSeed({ ...scratch.db, NODE_ENV: 'production' }, { passwordHashCost: 4, storage });
     expect(report.seed).toMatchObject({ demo: 'refused-in-production', usersAdded: 0, organisationsAdded: 0 });
     expect(report.seed!.capabilitiesAdded).toBeGreaterThan(0);
     expect(await demoRows()).toEqual({ admins: 0, organisations: 0, documents: 0 });
@@ -50,7 +50,7 @@ describe('the demo seed in production', () => {
     const before = process.env.NODE_ENV;
     process.env.NODE_ENV = 'production';
     try {
-      const report = await runSeed(ds.manager, { bcryptCost: 4, storage });
+      const report = await runSeed(ds.manager, { passwordHashCost: 4, storage });
       expect(report.demo).toBe('refused-in-production');
     } finally {
       process.env.NODE_ENV = before;
@@ -59,24 +59,24 @@ describe('the demo seed in production', () => {
   });
 
   it('is left out anywhere with SEED_DEMO=false', async () => {
-    const report = await runSeed(ds.manager, { nodeEnv: 'development', seedDemo: 'false', bcryptCost: 4, storage });
+    const report = await runSeed(ds.manager, { nodeEnv: 'development', seedDemo: 'false', passwordHashCost: 4, storage });
     expect(report.demo).toBe('off');
     expect(await demoRows()).toEqual({ admins: 0, organisations: 0, documents: 0 });
   });
 
   it('goes in with SEED_DEMO=force, once', async () => {
-    const report = await migrateAndSeed({ ...scratch.db, NODE_ENV: 'production', SEED_DEMO: 'force' }, { bcryptCost: 4, storage });
+    const report = await migrateAndSeed({ ...scratch.db, NODE_ENV: 'production', SEED_DEMO: 'force' }, { passwordHashCost: 4, storage });
     expect(report.seed).toMatchObject({ demo: 'seeded', organisationsAdded: DEMO_ORGANISATIONS.length });
     const rows = await demoRows();
     expect(rows).toMatchObject({ admins: DEMO_NETWORK_ADMINS.length, organisations: DEMO_ORGANISATIONS.length });
     expect(rows.documents).toBeGreaterThan(0);
-    const again = await migrateAndSeed({ ...scratch.db, NODE_ENV: 'production', SEED_DEMO: 'force' }, { bcryptCost: 4, storage });
+    const again = await migrateAndSeed({ ...scratch.db, NODE_ENV: 'production', SEED_DEMO: 'force' }, { passwordHashCost: 4, storage });
     expect(again.seed).toMatchObject({ demo: 'seeded', usersAdded: 0, organisationsAdded: 0 });
   }, 60_000);
 
   it('reads SEED_DEMO with NODE_ENV for `npm run seed`, refusing anything but auto, false and force', () => {
-    expect(loadSeedSettings({})).toEqual({ NODE_ENV: 'development', SEED_DEMO: 'auto' });
-    expect(loadSeedSettings({ NODE_ENV: 'production', SEED_DEMO: 'force' })).toEqual({ NODE_ENV: 'production', SEED_DEMO: 'force' });
+    expect(loadSeedSettings({})).toEqual({ NODE_ENV: 'development', SEED_DEMO: 'auto', PASSWORD_HASH_COST: 17 });
+    expect(loadSeedSettings({ NODE_ENV: 'production', SEED_DEMO: 'force' })).toEqual({ NODE_ENV: 'production', SEED_DEMO: 'force', PASSWORD_HASH_COST: 17 });
     expect(() => loadSeedSettings({ NODE_ENV: 'production', SEED_DEMO: 'yes' })).toThrow(ConfigError);
     expect(() => loadSeedSettings({ NODE_ENV: 'production', SEED_DEMO: 'yes' })).toThrow(/SEED_DEMO/);
   });

@@ -28,7 +28,7 @@ export default async function setup(project: TestProject) {
   rmSync(uploads, { recursive: true, force: true });
   await migrateAndSeed(
     { DB_HOST: '127.0.0.1', DB_PORT: settings.port, DB_NAME: settings.name, DB_USER: settings.user, DB_PASSWORD: settings.password, DB_POOL_SIZE: 2 },
-    { bcryptCost: 4, storage: new LocalDiskStorage(uploads) },
+    { passwordHashCost: 4, storage: new LocalDiskStorage(uploads) },
   );
   project.provide('db', { ...settings, socket: db.socket, pid: db.pid, uploadsDir: uploads });
   return async () => {

@@ -36,8 +36,8 @@ export async function createTestApp(overrides: Record<string, string> = {}, o: {
     LOG_LEVEL: 'silent',
     SERVE_APPS: 'false',
     DB_POOL_SIZE: '4',
-    // cost 4 keeps the suite fast; a test checks that the default is 12
-    BCRYPT_COST: '4',
+    // scrypt at N = 2^4 keeps the suite fast; a test checks that the default is OWASP's 2^17
+    PASSWORD_HASH_COST: '4',
     PUBLIC_URL: 'http://emberline.test',
     RUN_SCHEDULER: 'false',
     UPLOADS_DIR: uploadsDir,

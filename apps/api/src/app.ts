@@ -145,7 +145,7 @@ export function createApp(deps: AppDeps): EmberlineApp {
       jwtSecret: deps.jwtSecret,
       accessTtlSeconds: deps.config.ACCESS_TOKEN_TTL_SECONDS,
       refreshTtlDays: deps.config.REFRESH_TOKEN_TTL_DAYS,
-      bcryptCost: deps.config.BCRYPT_COST,
+      passwordHashCost: deps.config.PASSWORD_HASH_COST,
       publicUrl: deps.config.publicUrl,
     },
     limiters: createLimiters({ dataSource: deps.dataSource, logger: deps.logger, scope: deps.limitScope }, deps.limits),

@@ -3,6 +3,7 @@ import { isIP, isIPv4 } from 'node:net';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { z } from 'zod';
+import { DEFAULT_PASSWORD_HASH_COST } from './lib/password-hash';
 
 export const projectRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../..');
 
@@ -64,9 +65,22 @@ export const SEED_DEMO_MODES = ['auto', 'false', 'force'] as const;
 export type SeedDemoMode = (typeof SEED_DEMO_MODES)[number];
 const nodeEnv = z.enum(['development', 'production', 'test']).default('development');
 const seedDemo = z.enum(SEED_DEMO_MODES).default('auto');
+/** log2 of scrypt's N for password hashes (lib/password-hash.ts). */
+const passwordHashCost = z.coerce.number().int().min(1).max(20).default(DEFAULT_PASSWORD_HASH_COST);
+
+// the cost may only go below OWASP's minimum to keep the test suite fast
+function checkPasswordHashCost(c: { NODE_ENV: string; PASSWORD_HASH_COST: number }, ctx: z.RefinementCtx): void {
+  if (c.NODE_ENV !== 'test' && c.PASSWORD_HASH_COST < DEFAULT_PASSWORD_HASH_COST) {
+    ctx.addIssue({ code: 'custom', path: ['PASSWORD_HASH_COST'], message: `must be at least ${DEFAULT_PASSWORD_HASH_COST} outside tests` });
+  }
+}
+
+/** BCRYPT_COST, the variable's name before scrypt, still sets the cost (tests set it low); PASSWORD_HASH_COST wins. */
+const withRenamedVariables = (env: NodeJS.ProcessEnv): NodeJS.ProcessEnv =>
+  env.BCRYPT_COST === undefined || env.PASSWORD_HASH_COST !== undefined ? env : { ...env, PASSWORD_HASH_COST: env.BCRYPT_COST };
 
 /** What the seed needs to know, for scripts that seed without the API's whole configuration. */
-export const SeedEnvSchema = z.object({ NODE_ENV: nodeEnv, SEED_DEMO: seedDemo });
+export const SeedEnvSchema = z.object({ NODE_ENV: nodeEnv, SEED_DEMO: seedDemo, PASSWORD_HASH_COST: passwordHashCost }).superRefine(checkPasswordHashCost);
 
 /** Every variable is documented with its default in .env.example. */
 export const EnvSchema = z.object({
@@ -88,7 +102,7 @@ export const EnvSchema = z.object({
   JWT_SECRET: z.string().min(32, 'must be at least 32 characters').optional(),
   ACCESS_TOKEN_TTL_SECONDS: z.coerce.number().int().min(60).max(3600).default(900),
   REFRESH_TOKEN_TTL_DAYS: z.coerce.number().int().min(1).max(90).default(30),
-  BCRYPT_COST: z.coerce.number().int().min(4).max(15).default(12),
+  PASSWORD_HASH_COST: passwordHashCost,
   /** Where mail goes: the local capture server in development and tests, the real relay in production. */
   SMTP_URL: z.url({ protocol: /^smtps?$/, error: 'must be an smtp:// or smtps:// URL' }).default('smtp://127.0.0.1:2525'),
   MAIL_FROM: z.string().trim().min(3).max(254).default('Emberline <no-reply@emberline.invalid>'),
@@ -118,8 +132,7 @@ export const EnvSchema = z.object({
   // the local fake's credentials work nowhere else
   if (c.NODE_ENV === 'production' && c.STRIPE_SECRET_KEY === LOCAL_PAYMENTS_SECRET_KEY) ctx.addIssue({ code: 'custom', path: ['STRIPE_SECRET_KEY'], message: 'is required in production' });
   if (c.NODE_ENV === 'production' && c.STRIPE_WEBHOOK_SECRET === LOCAL_PAYMENTS_WEBHOOK_SECRET) ctx.addIssue({ code: 'custom', path: ['STRIPE_WEBHOOK_SECRET'], message: 'is required in production' });
-  // the cost may only go below 12 to keep the test suite fast
-  if (c.NODE_ENV !== 'test' && c.BCRYPT_COST < 12) ctx.addIssue({ code: 'custom', path: ['BCRYPT_COST'], message: 'must be at least 12 outside tests' });
+  checkPasswordHashCost(c, ctx);
 });
 
 export type Config = Readonly<z.infer<typeof EnvSchema>> & { readonly publicUrl: string };
@@ -133,13 +146,13 @@ export class ConfigError extends Error {
 
 /** NODE_ENV and SEED_DEMO alone, for `npm run seed`, which needs nothing else of the API's configuration. */
 export function loadSeedSettings(env: NodeJS.ProcessEnv = process.env): z.infer<typeof SeedEnvSchema> {
-  const parsed = SeedEnvSchema.safeParse(env);
+  const parsed = SeedEnvSchema.safeParse(withRenamedVariables(env));
   if (!parsed.success) throw new ConfigError(parsed.error.issues.map((i) => ({ variable: String(i.path[0] ?? '?'), message: i.message })));
   return parsed.data;
 }
 
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
-  const parsed = EnvSchema.safeParse(env);
+  const parsed = EnvSchema.safeParse(withRenamedVariables(env));
   if (!parsed.success) {
     throw new ConfigError(parsed.error.issues.map((i) => ({ variable: String(i.path[0] ?? '?'), message: i.message })));
   }

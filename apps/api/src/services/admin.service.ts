@@ -4,7 +4,7 @@ import { AuditLogEntity, MailOutboxEntity, UserAccountEntity } from '../entities
 import { newId } from '../lib/secure-token';
 import { redactSecrets } from '../lib/redact';
 import { audit } from './audit.service';
-import { hashPassword } from './auth.service';
+import { hashPassword } from '../lib/password-hash';
 import type { ServiceContext } from '../lib/context';
 
 export async function listMail(ctx: ServiceContext, filter: { status?: 'pending' | 'sent' | 'failed'; to?: string; limit: number }): Promise<MailLogEntry[]> {
@@ -50,7 +50,7 @@ export async function listAudit(ctx: ServiceContext, filter: { organisationId?: 
 /** Creates a network admin, or makes an existing account one (keeping its password). */
 export async function createNetworkAdmin(
   ctx: ServiceContext,
-  input: { email: string; name: string; password: string; bcryptCost: number },
+  input: { email: string; name: string; password: string; passwordHashCost: number },
 ): Promise<'created' | 'promoted'> {
   const users = ctx.manager.getRepository(UserAccountEntity);
   const existing = await users.findOneBy({ email: input.email });
@@ -65,7 +65,7 @@ export async function createNetworkAdmin(
     email: input.email,
     name: input.name,
     locale: 'en',
-    passwordHash: await hashPassword(input.password, input.bcryptCost),
+    passwordHash: await hashPassword(input.password, input.passwordHashCost),
     isOwner: false,
     isNetworkAdmin: true,
     emailVerifiedAt: new Date(),

@@ -9,12 +9,12 @@
 // address with the e-mailed reset link; a locked account answers exactly like a wrong password.
 import { randomBytes } from 'node:crypto';
 import { setTimeout as sleep } from 'node:timers/promises';
-import bcrypt from 'bcryptjs';
 import { IsNull, type EntityManager } from 'typeorm';
 import { PASSWORD_IS_EMAIL_MESSAGE, passwordMatchesEmail, type OwnerSignUp, type PartnerSignUp } from '@emberline/domain';
 import { MembershipEntity, OneTimeTokenEntity, OrganisationEntity, UserAccountEntity, type OneTimePurpose } from '../entities';
 import type { ServiceContext } from '../lib/context';
 import { createError, ValidationFailed } from '../lib/errors';
+import { hashPassword, needsRehash, verifyPassword } from '../lib/password-hash';
 import { hashToken, newId, newToken } from '../lib/secure-token';
 import { enqueueMail } from '../mail/outbox';
 import { audit } from './audit.service';
@@ -22,7 +22,8 @@ import { issueSession, revokeAllSessions, type IssuedSession, type SessionSettin
 import { beginPasswordAttempt, forgetFailures, passwordAccepted, sweepThrottle, throttleKeys } from './sign-in-throttle.service';
 
 export interface AuthSettings extends SessionSettings {
-  bcryptCost: number;
+  /** log2 of scrypt's N for new password hashes (lib/password-hash.ts). */
+  passwordHashCost: number;
   publicUrl: string;
 }
 
@@ -38,20 +39,18 @@ export const InvalidCredentials = createError('INVALID_CREDENTIALS', 401, 'E-mai
 export const EmailNotVerified = createError('EMAIL_NOT_VERIFIED', 403, 'Please confirm your e-mail address first');
 export const InvalidLink = createError('INVALID_LINK', 400, 'This link is no longer valid');
 
-// a bcrypt hash of a random secret at the configured cost: checking an unknown address costs
-// what a real check costs
+// a hash of a random secret at the configured cost: checking an unknown address costs what a
+// real check costs
 const dummyHashes = new Map<number, Promise<string>>();
 function dummyHash(cost: number): Promise<string> {
   let hash = dummyHashes.get(cost);
-  if (!hash) dummyHashes.set(cost, (hash = bcrypt.hash(randomBytes(32).toString('base64url'), cost)));
+  if (!hash) dummyHashes.set(cost, (hash = hashPassword(randomBytes(32).toString('base64url'), cost)));
   return hash;
 }
 
 export const ACCEPTED_SIGN_UP = 'Thanks! If this address can be used, we have sent a link to confirm it. Please check your inbox.';
 export const ACCEPTED_RESET = 'If an account uses this address, we have sent a link to choose a new password. Please check your inbox.';
 export const ACCEPTED_RESEND = 'If this address has an account waiting for confirmation, we have sent a new link.';
-
-export const hashPassword = (password: string, cost: number) => bcrypt.hash(password, cost);
 
 export function appLink(settings: AuthSettings, app: 'directory' | 'console', route: string, token: string): string {
   const base = app === 'console' ? `${settings.publicUrl}/console` : settings.publicUrl;
@@ -94,7 +93,7 @@ async function createUser(manager: EntityManager, input: { name: string; email: 
     email: input.email,
     name: input.name,
     locale: input.locale,
-    passwordHash: await hashPassword(input.password, settings.bcryptCost),
+    passwordHash: await hashPassword(input.password, settings.passwordHashCost),
     isOwner: false,
     isNetworkAdmin: false,
     emailVerifiedAt: null,
@@ -106,7 +105,7 @@ async function createUser(manager: EntityManager, input: { name: string; email: 
 
 /** Existing addresses get the same answer; an unconfirmed one gets a fresh link. */
 async function handleExistingAddress(manager: EntityManager, existing: UserAccountEntity, password: string, app: 'directory' | 'console', settings: AuthSettings) {
-  await bcrypt.hash(password, settings.bcryptCost); // same work as a real sign-up
+  await hashPassword(password, settings.passwordHashCost); // same work as a real sign-up
   if (!existing.emailVerifiedAt) await sendVerification(manager, existing, app, settings);
 }
 
@@ -164,14 +163,21 @@ async function lockAccount(manager: EntityManager, user: UserAccountEntity, sett
  * address and IP (throws SignInPaused), counted toward the account lock, and as slow either way.
  * True only when the account exists, is not locked and the password is right. The bookkeeping
  * is written outside the caller's transaction, so a failure that rolls it back still counts.
+ * A right password whose hash is older (bcrypt, or another cost) is stored again as today's.
  */
 export async function checkPassword(ctx: ServiceContext, email: string, user: UserAccountEntity | null, password: string, settings: AuthSettings): Promise<boolean> {
   const keys = throttleKeys(email, ctx.actor.ip);
   const { addressFailures } = await beginPasswordAttempt(ctx.manager, keys);
-  const matches = await bcrypt.compare(password, user?.passwordHash ?? (await dummyHash(settings.bcryptCost)));
+  const matches = await verifyPassword(password, user?.passwordHash ?? (await dummyHash(settings.passwordHashCost)));
   const locked = user?.lockedUntil != null && user.lockedUntil.getTime() > Date.now();
   if (user && matches && !locked) {
     await passwordAccepted(ctx.manager, keys);
+    if (needsRehash(user.passwordHash, settings.passwordHashCost)) {
+      // only over the hash just checked: a password reset meanwhile wins
+      const fresh = await hashPassword(password, settings.passwordHashCost);
+      await ctx.manager.getRepository(UserAccountEntity).update({ id: user.id, passwordHash: user.passwordHash }, { passwordHash: fresh });
+      user.passwordHash = fresh;
+    }
     return true;
   }
   if (user && !locked && addressFailures >= ACCOUNT_LOCK_FAILURES) await lockAccount(ctx.manager, user, settings);
@@ -232,7 +238,7 @@ export async function resetPassword(ctx: ServiceContext, input: { token: string;
     // the link arrived by e-mail, so the address is confirmed too; a new token version ends
     // every access token issued before
     {
-      passwordHash: await hashPassword(input.password, settings.bcryptCost),
+      passwordHash: await hashPassword(input.password, settings.passwordHashCost),
       lockedUntil: null,
       emailVerifiedAt: user.emailVerifiedAt ?? new Date(),
       tokenVersion: () => 'token_version + 1',

@@ -8,7 +8,8 @@ import { createError, NotFound } from '../lib/errors';
 import { hashToken, newId, newToken } from '../lib/secure-token';
 import { enqueueMail } from '../mail/outbox';
 import { audit } from './audit.service';
-import { appLink, checkPassword, hashPassword, InvalidCredentials, type AuthSettings } from './auth.service';
+import { hashPassword } from '../lib/password-hash';
+import { appLink, checkPassword, InvalidCredentials, type AuthSettings } from './auth.service';
 import { issueSession, type IssuedSession } from './session.service';
 
 export const INVITATION_DAYS = 7;
@@ -165,7 +166,7 @@ export async function acceptInvitation(ctx: ServiceContext, input: AcceptInput, 
       email: invitation.email,
       name: input.name!.trim(),
       locale: 'en',
-      passwordHash: await hashPassword(input.password, settings.bcryptCost),
+      passwordHash: await hashPassword(input.password, settings.passwordHashCost),
       isOwner: false,
       isNetworkAdmin: false,
       emailVerifiedAt: new Date(),

@@ -2,7 +2,6 @@
 // (profile, equipment, documents). Idempotent: looks people up by e-mail and organisations by
 // name, and adds only what is missing.
 import { createHash } from 'node:crypto';
-import bcrypt from 'bcryptjs';
 import { In, type EntityManager } from 'typeorm';
 import {
   CapabilityEntity,
@@ -14,6 +13,7 @@ import {
   UserAccountEntity,
   VehicleEntity,
 } from '../../entities';
+import { hashPassword } from '../../lib/password-hash';
 import { newId } from '../../lib/secure-token';
 import type { Storage } from '../../storage';
 import { DEMO_NETWORK_ADMINS, DEMO_ORGANISATIONS, DEMO_OWNERS, DEMO_PASSWORD, DEMO_VEHICLES, type DemoOrganisation, type DemoPerson } from './demo-data';
@@ -82,7 +82,7 @@ async function seedApplication(
 }
 
 /** `storage` receives the demo documents; without it they are left out. */
-export async function seedDemo(manager: EntityManager, bcryptCost: number, o: { storage?: Storage; now?: Date } = {}): Promise<DemoSeedReport> {
+export async function seedDemo(manager: EntityManager, passwordHashCost: number, o: { storage?: Storage; now?: Date } = {}): Promise<DemoSeedReport> {
   const users = manager.getRepository(UserAccountEntity);
   const orgs = manager.getRepository(OrganisationEntity);
   const memberships = manager.getRepository(MembershipEntity);
@@ -95,7 +95,7 @@ export async function seedDemo(manager: EntityManager, bcryptCost: number, o: { 
     const existing = await users.findOneBy({ email: p.email });
     if (existing) return existing;
     created.add(p.email);
-    passwordHash ??= await bcrypt.hash(DEMO_PASSWORD, bcryptCost);
+    passwordHash ??= await hashPassword(DEMO_PASSWORD, passwordHashCost);
     report.usersAdded++;
     return users.save(
       users.create({

@@ -2,6 +2,7 @@
 // twice adds nothing twice.
 import type { EntityManager } from 'typeorm';
 import type { SeedDemoMode } from '../../config';
+import { DEFAULT_PASSWORD_HASH_COST } from '../../lib/password-hash';
 import type { Storage } from '../../storage';
 import { CapabilityEntity, ServiceTypeEntity } from '../../entities';
 import { seedRules } from '../../services/eligibility-rules.service';
@@ -72,7 +73,7 @@ export function demoSeedDecision(nodeEnv: string | undefined, mode: SeedDemoMode
  */
 export async function runSeed(
   manager: EntityManager,
-  o: { demo?: boolean; nodeEnv?: string; seedDemo?: SeedDemoMode; bcryptCost?: number; storage?: Storage } = {},
+  o: { demo?: boolean; nodeEnv?: string; seedDemo?: SeedDemoMode; passwordHashCost?: number; storage?: Storage } = {},
 ): Promise<FullSeedReport> {
   const decision = o.demo === false ? 'off' : demoSeedDecision(o.nodeEnv ?? process.env.NODE_ENV, o.seedDemo);
   const stored: string[] = [];
@@ -88,7 +89,7 @@ export async function runSeed(
   try {
     return await manager.transaction(async (tx) => {
       const catalogue = await seedCatalogue(tx);
-      const demo = decision === 'seeded' ? await seedDemo(tx, o.bcryptCost ?? 12, { storage }) : { usersAdded: 0, organisationsAdded: 0, profilesAdded: 0, documentsAdded: 0 };
+      const demo = decision === 'seeded' ? await seedDemo(tx, o.passwordHashCost ?? DEFAULT_PASSWORD_HASH_COST, { storage }) : { usersAdded: 0, organisationsAdded: 0, profilesAdded: 0, documentsAdded: 0 };
       return { ...catalogue, ...demo, demo: decision };
     });
   } catch (err) {
