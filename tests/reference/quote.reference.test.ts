@@ -91,7 +91,14 @@ describe('computeQuote — worked examples, by hand', () => {
 
   it('a business with a German VAT ID buying from an Austrian partner: no VAT, reverse-charge note (Art. 44, Art. 196)', () => {
     const q = computeQuote({ ...conversion, customer: { kind: 'business', vatId: 'DE136695976' } });
-    expect(q.vat).toEqual({ treatment: 'reverse-charge', country: 'DE', rateBp: 0, validFrom: null, note: REVERSE_CHARGE_NOTE });
+    expect(q.vat).toEqual({
+      treatment: 'reverse-charge',
+      country: 'DE',
+      rateBp: 0,
+      validFrom: null,
+      note: REVERSE_CHARGE_NOTE,
+      rule: { code: 'b2b-reverse-charge', article: 'Art. 44, Art. 196', params: { customer: 'business', supplierCountry: 'AT', workCountry: 'AT', customerCountry: 'DE', placeOfSupply: 'DE' } },
+    });
     expect(q.vatMinor).toBe(0);
     expect(q.grossMinor).toBe(29_060);
   });

@@ -1,4 +1,5 @@
 // Public surface of the pure domain package: schemas and computations, no I/O.
+export * from './errors';
 export * from './schemas/problem';
 export * from './schemas/query';
 export * from './schemas/catalogue';

@@ -1,4 +1,5 @@
 // Distances on the Earth as a sphere: great-circle distance, a bounding box for a radius, service areas.
+import { DomainInputError } from '../errors';
 
 /** A point in WGS84 degrees, the way the apps and the database store bases and customers. */
 export interface GeoPoint {
@@ -16,8 +17,8 @@ const RAD = Math.PI / 180;
 
 /** Throws when a point is not a finite latitude in [−90, 90] and longitude in [−180, 180]. */
 export function assertGeoPoint(point: GeoPoint, label = 'point'): void {
-  if (!Number.isFinite(point.lat) || point.lat < -90 || point.lat > 90) throw new RangeError(`${label}: latitude must be between −90 and 90, got ${point.lat}`);
-  if (!Number.isFinite(point.lng) || point.lng < -180 || point.lng > 180) throw new RangeError(`${label}: longitude must be between −180 and 180, got ${point.lng}`);
+  if (!Number.isFinite(point.lat) || point.lat < -90 || point.lat > 90) throw new DomainInputError(`${label}: latitude must be between −90 and 90, got ${point.lat}`);
+  if (!Number.isFinite(point.lng) || point.lng < -180 || point.lng > 180) throw new DomainInputError(`${label}: longitude must be between −180 and 180, got ${point.lng}`);
 }
 
 /**

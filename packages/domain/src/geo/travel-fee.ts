@@ -1,6 +1,7 @@
 // What a mobile job's driving costs the customer, from the organisation's travel policy.
-import { greatCircleDistanceM, type GeoPoint } from './distance';
-import { DEFAULT_TRAVEL_ASSUMPTIONS, type TravelAssumptions } from './travel';
+import { DomainInputError } from '../errors';
+import { assertGeoPoint, greatCircleDistanceM, type GeoPoint } from './distance';
+import { assertTravelAssumptions, DEFAULT_TRAVEL_ASSUMPTIONS, type TravelAssumptions } from './travel';
 
 /** The parts of a travel policy the fee needs (integer minor units per km). */
 export interface TravelFeePolicy {
@@ -31,13 +32,19 @@ export interface TravelFee {
  * no rounding.
  */
 export function travelFee(policy: TravelFeePolicy, base: GeoPoint, customer: GeoPoint, assumptions: TravelAssumptions = DEFAULT_TRAVEL_ASSUMPTIONS): TravelFee {
+  assertGeoPoint(base, 'base');
+  assertGeoPoint(customer, 'customer');
   return travelFeeForDistance(policy, greatCircleDistanceM(base, customer) / 1000, assumptions);
 }
 
 /** As `travelFee`, from a straight-line distance in km. */
 export function travelFeeForDistance(policy: TravelFeePolicy, straightKm: number, assumptions: TravelAssumptions = DEFAULT_TRAVEL_ASSUMPTIONS): TravelFee {
-  if (!Number.isFinite(straightKm) || straightKm < 0) throw new RangeError(`distance must be a finite number of km ≥ 0, got ${straightKm}`);
-  if (!Number.isInteger(policy.ratePerKmMinor) || policy.ratePerKmMinor < 0) throw new RangeError(`rate per km must be whole minor units ≥ 0, got ${policy.ratePerKmMinor}`);
+  if (!Number.isFinite(straightKm) || straightKm < 0) throw new DomainInputError(`distance must be a finite number of km ≥ 0, got ${straightKm}`);
+  if (!Number.isSafeInteger(policy.ratePerKmMinor) || policy.ratePerKmMinor < 0) throw new DomainInputError(`rate per km must be whole minor units ≥ 0, got ${policy.ratePerKmMinor}`);
+  // whole km, as the travel policy form takes them: the fee counts started kilometres
+  if (!Number.isSafeInteger(policy.freeWithinKm) || policy.freeWithinKm < 0) throw new DomainInputError(`free distance must be whole km ≥ 0, got ${policy.freeWithinKm}`);
+  if (!Number.isSafeInteger(policy.maxDistanceKm) || policy.maxDistanceKm < 0) throw new DomainInputError(`longest distance must be whole km ≥ 0, got ${policy.maxDistanceKm}`);
+  assertTravelAssumptions(assumptions);
   // a hair of float noise (e.g. 20.000000000004) must not start another kilometre
   const roadKm = Math.ceil(Number((straightKm * assumptions.roadFactor).toFixed(6)));
   const withinReach = roadKm <= policy.maxDistanceKm;

@@ -1,4 +1,5 @@
 // Estimated driving time between two points: great-circle distance stretched by a road factor.
+import { DomainInputError } from '../errors';
 import { greatCircleDistanceM, type GeoPoint } from './distance';
 
 /** How the slot engine turns a straight-line distance into driving time. */
@@ -17,8 +18,8 @@ export const DEFAULT_TRAVEL_ASSUMPTIONS: Readonly<TravelAssumptions> = Object.fr
 
 /** Throws unless the road factor is at least 1 and the speed positive (both finite). */
 export function assertTravelAssumptions(a: TravelAssumptions): void {
-  if (!Number.isFinite(a.roadFactor) || a.roadFactor < 1) throw new RangeError(`road factor must be 1 or more, got ${a.roadFactor}`);
-  if (!Number.isFinite(a.averageSpeedKmh) || a.averageSpeedKmh <= 0) throw new RangeError(`average speed must be more than 0 km/h, got ${a.averageSpeedKmh}`);
+  if (!Number.isFinite(a.roadFactor) || a.roadFactor < 1) throw new DomainInputError(`road factor must be 1 or more, got ${a.roadFactor}`);
+  if (!Number.isFinite(a.averageSpeedKmh) || a.averageSpeedKmh <= 0) throw new DomainInputError(`average speed must be more than 0 km/h, got ${a.averageSpeedKmh}`);
 }
 
 /** Driving minutes for a straight-line distance: distance × road factor ÷ average speed. */

@@ -1,13 +1,13 @@
 // The quote: labour + parts kit + travel, each line with VAT, in integer minor units, through
-// dinero.js. The VAT rule (Council Directive 2006/112/EC): work on a vehicle for a consumer is
-// taxed where it is physically carried out (Art. 54(2)(b)); a business customer with a valid VAT
-// ID of another member state than the supplier's is charged no VAT and accounts for it itself
-// (Art. 44 with the reverse charge of Art. 196). Rounding: VAT is computed per line and rounded
+// dinero.js. Which VAT applies is the case table of vat-rules.ts (Council Directive 2006/112/EC).
+// Input outside the rules (fractional amounts, a commission below 0, totals beyond 2^53) is
+// refused with a DomainInputError. Rounding: VAT is computed per line and rounded
 // half up to the currency's minor unit (commercial rounding); totals are sums of rounded lines.
 import { add, allocate, dinero, halfUp, multiply, toSnapshot, transformScale, type Dinero, type DineroCurrency } from 'dinero.js';
-import { isValidVatId } from '../schemas/onboarding';
-import type { Cancellation, Currency, Deposit } from '../schemas/offers';
-import { isEuVatCountry, standardVatRate, vatCountryOf, VAT_RATES, type VatRateEntry } from './vat-rates';
+import { DomainInputError } from '../errors';
+import { CancellationSchema, DepositSchema, type Cancellation, type Currency, type Deposit } from '../schemas/offers';
+import type { VatRateEntry } from './vat-rates';
+import { vatTreatment, type Customer, type VatOutcome, type VatSupply } from './vat-rules';
 
 /** ISO 4217 minor units of the currencies we price in (2 for each; checked against currency-codes). */
 export const CURRENCY_MINOR_UNITS: Readonly<Record<Currency, number>> = Object.freeze({ EUR: 2, SEK: 2, NOK: 2, DKK: 2, CHF: 2 });
@@ -15,15 +15,14 @@ export const CURRENCY_MINOR_UNITS: Readonly<Record<Currency, number>> = Object.f
 const currencyOf = (code: Currency): DineroCurrency<number> => ({ code, base: 10, exponent: CURRENCY_MINOR_UNITS[code] });
 
 export type QuoteLineKind = 'labour' | 'parts' | 'travel';
-export type Customer = { kind: 'consumer' } | { kind: 'business'; vatId: string };
 
 export interface QuoteInput {
   currency: Currency;
   lines: ReadonlyArray<{ kind: QuoteLineKind; description: string; netMinor: number }>;
-  /** Where the work is physically done (the owner's place or the workshop), ISO alpha-2. */
-  workCountry: string;
-  /** Where the partner is established, ISO alpha-2. */
-  supplierCountry: string;
+  /** Where the work is physically done (the owner's place or the workshop), ISO alpha-2; a consumer's quote needs it. */
+  workCountry?: VatSupply['workCountry'];
+  /** Where the partner is established, ISO alpha-2; never guessed (VatUndecidableError when missing). */
+  supplierCountry: VatSupply['supplierCountry'];
   customer: Customer;
   /** The day of the work, YYYY-MM-DD: the rate in force then applies. */
   supplyDate: string;
@@ -45,8 +44,6 @@ export interface QuoteLine {
   grossMinor: number;
 }
 
-export type VatTreatment = 'standard' | 'reverse-charge';
-
 export interface Quote {
   currency: Currency;
   minorUnits: number;
@@ -54,7 +51,7 @@ export interface Quote {
   netMinor: number;
   vatMinor: number;
   grossMinor: number;
-  vat: { treatment: VatTreatment; country: string; rateBp: number; validFrom: string | null; note: string | null };
+  vat: VatOutcome;
   /** Due at booking; the rest on completion. */
   depositMinor: number;
   /** Free until `freeUntilHours` before the start, then `feeMinor` (never more than the gross). */
@@ -62,33 +59,33 @@ export interface Quote {
   partner: { commissionBp: number; commissionMinor: number; partnerShareMinor: number; processingFeeEstimateMinor: number };
 }
 
-export const REVERSE_CHARGE_NOTE = 'Reverse charge: VAT to be accounted for by the recipient (Council Directive 2006/112/EC, Art. 196).';
-
 const amountOf = (d: Dinero<number>) => toSnapshot(d).amount;
 
 /** `minor × bp / 10 000`, rounded half up to the currency's minor unit. */
 function shareOf(currency: Currency, minor: number, bp: number): number {
+  // dinero.js multiplies in plain numbers: beyond 2^53 the product silently loses units
+  if (!Number.isSafeInteger(minor * bp)) throw new DomainInputError(`${minor} × ${bp} basis points is beyond what whole numbers hold exactly (2^53)`);
   const d = dinero({ amount: minor, currency: currencyOf(currency) });
   return amountOf(transformScale(multiply(d, { amount: bp, scale: 4 }), CURRENCY_MINOR_UNITS[currency], halfUp));
 }
 
 function assertMinor(label: string, v: number): void {
-  if (!Number.isSafeInteger(v) || v < 0) throw new RangeError(`${label} must be a whole number of minor units ≥ 0, got ${v}`);
+  if (!Number.isSafeInteger(v) || v < 0) throw new DomainInputError(`${label} must be a whole number of minor units ≥ 0, got ${v}`);
 }
 
-/** VAT country, rate and treatment for a supply. */
-export function vatTreatment(input: Pick<QuoteInput, 'workCountry' | 'supplierCountry' | 'customer' | 'supplyDate' | 'rates'>): Quote['vat'] {
-  const supplier = vatCountryOf(input.supplierCountry);
-  if (input.customer.kind === 'business') {
-    const id = input.customer.vatId.replace(/[\s.-]/g, '').toUpperCase();
-    if (!isValidVatId(id)) throw new RangeError(`The VAT ID ${input.customer.vatId} is not valid`);
-    const customerCountry = vatCountryOf(id.slice(0, 2));
-    if (isEuVatCountry(customerCountry) && isEuVatCountry(supplier) && customerCountry !== supplier) {
-      return { treatment: 'reverse-charge', country: customerCountry, rateBp: 0, validFrom: null, note: REVERSE_CHARGE_NOTE };
-    }
-  }
-  const rate = standardVatRate(input.workCountry, input.supplyDate, input.rates ?? VAT_RATES);
-  return { treatment: 'standard', country: rate.country, rateBp: rate.standardBp, validFrom: rate.validFrom, note: null };
+function assertBasisPoints(label: string, v: number): void {
+  if (!Number.isInteger(v) || v < 0 || v > 10_000) throw new DomainInputError(`${label} must be whole basis points from 0 to 10 000 (0 to 100 %), got ${v}`);
+}
+
+/** The offer's terms through the same schemas that check the offer form, so a quote cannot hold what an offer could not. */
+function assertTerms(input: Pick<QuoteInput, 'deposit' | 'cancellation' | 'commissionBp' | 'processingFee'>): void {
+  const deposit = DepositSchema.safeParse(input.deposit);
+  if (!deposit.success) throw new DomainInputError(`deposit: ${deposit.error.issues[0]?.message ?? 'not valid'}`);
+  const cancellation = CancellationSchema.safeParse(input.cancellation);
+  if (!cancellation.success) throw new DomainInputError(`cancellation: ${cancellation.error.issues[0]?.message ?? 'not valid'}`);
+  assertBasisPoints('commission', input.commissionBp);
+  assertBasisPoints('processing fee share', input.processingFee.percentBp);
+  assertMinor('processing fee fixed amount', input.processingFee.fixedMinor);
 }
 
 export function computeQuote(input: QuoteInput): Quote {
@@ -96,6 +93,7 @@ export function computeQuote(input: QuoteInput): Quote {
   const exponent = CURRENCY_MINOR_UNITS[currency];
   if (exponent === undefined) throw new RangeError(`Unknown currency ${currency}`);
   input.lines.forEach((l, i) => assertMinor(`line ${i + 1}`, l.netMinor));
+  assertTerms(input);
   const vat = vatTreatment(input);
 
   const lines: QuoteLine[] = input.lines.map((l) => {
@@ -107,9 +105,13 @@ export function computeQuote(input: QuoteInput): Quote {
   const netMinor = sum((l) => l.netMinor);
   const vatMinor = sum((l) => l.vatMinor);
   const grossMinor = sum((l) => l.grossMinor);
+  // a sum past 2^53 rounds to a float that is no longer a whole number of units
+  if (!Number.isSafeInteger(grossMinor)) throw new DomainInputError(`The total is beyond what whole numbers hold exactly (2^53 minor units)`);
 
   let depositMinor = 0;
-  if (input.deposit.kind === 'fixed') depositMinor = Math.min(input.deposit.amountMinor, grossMinor);
+  // the offer form keeps a fixed deposit within the price, so one above the total is a bad input
+  if (input.deposit.kind === 'fixed' && input.deposit.amountMinor > grossMinor) throw new DomainInputError(`The deposit (${input.deposit.amountMinor}) is more than the total (${grossMinor})`);
+  if (input.deposit.kind === 'fixed') depositMinor = input.deposit.amountMinor;
   if (input.deposit.kind === 'percent') depositMinor = shareOf(currency, grossMinor, input.deposit.percent * 100);
 
   // commission on labour and travel; the partner keeps the rest of the net (parts in full)

@@ -5,6 +5,9 @@
 // authorities as listed in ../shared/REFERENCES.md. Earlier entries are from memory and only
 // show that a change of rate is a new row, not an edit.
 
+import { DomainInputError } from '../errors';
+import { LocalDateSchema } from '../schemas/hours';
+
 export interface VatRateEntry {
   /** ISO 3166-1 alpha-2, except Greece which VAT writes EL. */
   country: string;
@@ -69,14 +72,33 @@ export function isEuVatCountry(country: string): boolean {
   return (EU_VAT_COUNTRIES as readonly string[]).includes(vatCountryOf(country));
 }
 
+/**
+ * A calendar date YYYY-MM-DD as a number (UTC midnight, ms) to compare as a date: compared as
+ * text, "2024-8-31" sorts after "2024-09-01", so anything else is refused.
+ */
+export function calendarDayOf(date: string, label = 'date'): number {
+  const parsed = LocalDateSchema.safeParse(date);
+  if (!parsed.success) throw new DomainInputError(`The ${label} must be a calendar date written YYYY-MM-DD, got "${date}"`);
+  return Date.parse(`${date}T00:00:00Z`);
+}
+
 /** The standard rate in force in `country` on `date` (YYYY-MM-DD); throws when the table has none. */
 export function standardVatRate(country: string, date: string, table: readonly VatRateEntry[] = VAT_RATES): VatRateEntry {
   const c = vatCountryOf(country);
-  let found: VatRateEntry | undefined;
+  const day = calendarDayOf(date, 'supply date');
+  let found: { entry: VatRateEntry; from: number } | undefined;
   for (const entry of table) {
-    if (entry.country !== c || entry.validFrom > date) continue;
-    if (!found || entry.validFrom > found.validFrom) found = entry;
+    if (entry.country !== c) continue;
+    const from = calendarDayOf(entry.validFrom, `valid-from date of the ${c} rate`);
+    if (from > day) continue;
+    if (!found || from > found.from) found = { entry, from };
   }
-  if (!found) throw new RangeError(`No standard VAT rate for ${c} on ${date}`);
-  return found;
+  if (!found) throw new DomainInputError(`No standard VAT rate for ${c} on ${date}`);
+  return found.entry;
+}
+
+/** True when the table holds a rate for `country` at all (on some date). */
+export function hasVatRates(country: string, table: readonly VatRateEntry[] = VAT_RATES): boolean {
+  const c = vatCountryOf(country);
+  return table.some((entry) => entry.country === c);
 }

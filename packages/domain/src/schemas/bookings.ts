@@ -7,6 +7,7 @@ import { InstantSchema } from './hours';
 import { CountrySchema, isValidVatId } from './onboarding';
 import { CurrencySchema } from './offers';
 import { queryNumber } from './query';
+import { VAT_RULE_CODES, VAT_TREATMENTS } from '../quote/vat-rules';
 
 /** Minutes a slot is held while the owner pays. */
 export const HOLD_MINUTES = 10;
@@ -81,6 +82,17 @@ export const BookingRequestSchema = z
   });
 export type BookingRequest = z.input<typeof BookingRequestSchema>;
 
+const VatRuleSchema = z.object({
+  code: z.enum(VAT_RULE_CODES),
+  article: z.string().describe('Articles of Council Directive 2006/112/EC'),
+  params: z.object({
+    customer: z.enum(['consumer', 'business']),
+    supplierCountry: z.string(),
+    workCountry: z.string().nullable(),
+    customerCountry: z.string().nullable(),
+    placeOfSupply: z.string(),
+  }),
+});
 const QuoteLineSchema = z.object({ kind: z.enum(['labour', 'parts', 'travel']), description: z.string(), netMinor: z.number().int(), vatRateBp: z.number().int(), vatMinor: z.number().int(), grossMinor: z.number().int() });
 export const QuoteSchema = z.object({
   currency: CurrencySchema,
@@ -89,7 +101,15 @@ export const QuoteSchema = z.object({
   netMinor: z.number().int(),
   vatMinor: z.number().int(),
   grossMinor: z.number().int(),
-  vat: z.object({ treatment: z.enum(['standard', 'reverse-charge']), country: z.string(), rateBp: z.number().int(), validFrom: z.string().nullable(), note: z.string().nullable() }),
+  vat: z.object({
+    treatment: z.enum(VAT_TREATMENTS),
+    country: z.string(),
+    rateBp: z.number().int(),
+    validFrom: z.string().nullable(),
+    note: z.string().nullable(),
+    /** Which case of the VAT table applied (`VAT_CASES`); absent on quotes stored before it was recorded. */
+    rule: VatRuleSchema.optional(),
+  }),
   depositMinor: z.number().int(),
   cancellation: z.object({ freeUntilHours: z.number().int(), feeMinor: z.number().int() }),
   partner: z.object({ commissionBp: z.number().int(), commissionMinor: z.number().int(), partnerShareMinor: z.number().int(), processingFeeEstimateMinor: z.number().int() }),

@@ -16,6 +16,12 @@ export function isValidVatId(vatId: string): boolean {
   return checkVAT(vatId.replace(/[\s.-]/g, '').toUpperCase(), vatCountries).isValid;
 }
 
+/** The ISO 3166 country that issued a valid VAT ID (CHE… is CH, EL… is GR), or null when it is not valid. */
+export function vatIdCountry(vatId: string): string | null {
+  const result = checkVAT(vatId.replace(/[\s.-]/g, '').toUpperCase(), vatCountries);
+  return result.isValid ? (result.country?.isoCode.short ?? null) : null;
+}
+
 const text = (label: string, max: number) =>
   z.string({ error: `Enter the ${label}` }).trim().min(1, `Enter the ${label}`).max(max, `Use at most ${max} characters`);
 
