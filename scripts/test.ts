@@ -63,6 +63,7 @@ if (!setupFailed) {
     check('types: API, domain, client, scripts and tests (tsc)', bin('tsc'), ['--noEmit', '-p', 'tsconfig.json']);
     for (const p of ['apps/directory', 'apps/console', 'packages/ui']) check(`types: ${p} (vue-tsc)`, bin('vue-tsc'), ['--noEmit', '-p', `${p}/tsconfig.json`]);
   }
+  if (wants('lint')) check('lint: ESLint recommended rules for TypeScript and Vue, no warnings', bin('eslint'), ['.', '--max-warnings', '0']);
   // high and critical advisories in what ships; a registry out of reach only warns
   if (wants('audit')) check('dependencies: npm audit --omit=dev, no unexplained high or critical findings', process.execPath, ['--import', 'tsx', path.join(root, 'scripts', 'audit-check.ts')]);
 }

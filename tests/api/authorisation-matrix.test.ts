@@ -180,7 +180,7 @@ let other: Records;
 let pendingOrg: string;
 let approvedPartner: string;
 let kaltstartRefs: Record<string, string>;
-let operations: Operation[] = [];
+const operations: Operation[] = [];
 
 const one = async <T = Record<string, string>>(sql: string, params: unknown[]): Promise<T> => {
   const [row] = await t.dataSource.query(sql, params);

@@ -337,7 +337,7 @@ function send(r: FuzzRequest): Promise<Answer> {
   });
 }
 
-const STACK_TRACE = /\n\s+at [\w$.<>\[\] ]+ \(|\bat (?:Object|Module|process)\.|node:internal|[\\/]node_modules[\\/]|[\\/]apps[\\/]api[\\/]src[\\/]/;
+const STACK_TRACE = /\n\s+at [\w$.<>[\] ]+ \(|\bat (?:Object|Module|process)\.|node:internal|[\\/]node_modules[\\/]|[\\/]apps[\\/]api[\\/]src[\\/]/;
 
 /** Why an answer breaks the contract, or undefined if it keeps it. */
 function violation(a: Answer): string | undefined {

@@ -106,7 +106,7 @@ interface Operation {
   multipart: boolean;
 }
 
-let operations: Operation[] = [];
+const operations: Operation[] = [];
 
 async function fingerprint(): Promise<string> {
   const rows: { Table: string; Checksum: number }[] = await t.dataSource.query(

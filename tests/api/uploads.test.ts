@@ -1,6 +1,6 @@
 // Document uploads and downloads: the type is sniffed from the bytes, size and fields are
 // checked, a failed upload leaves nothing behind, and files go only to their organisation.
-import { readdirSync, readFileSync } from 'node:fs';
+import { readdirSync } from 'node:fs';
 import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';

@@ -12,7 +12,7 @@ import {
 } from '@emberline/domain';
 import { OrganisationEntity, PartnerProfileEntity } from '../entities';
 import type { ServiceContext } from '../lib/context';
-import { createError, NotFound } from '../lib/errors';
+import { createError } from '../lib/errors';
 import { enqueueMail } from '../mail/outbox';
 import { listAudit } from './admin.service';
 import { audit } from './audit.service';

@@ -16,7 +16,6 @@ import {
   SEARCH_SLOT_DAYS,
   travelFeeForDistance,
   vehicleClassOf,
-  type CautionCode,
   type Currency,
   type GeoPoint,
   type SearchQuery,
