@@ -59,7 +59,7 @@ describe('GET /api/partners/:partnerId/quote', () => {
     expect(Math.ceil(straightKm * 1.3)).toBe(37);
     const res = await request(t.app)
       .get(`/api/partners/${await glutwerk()}/quote`)
-      .query({ serviceType: 'parking-conversion-auto', jobAt: 'owner', ...place, ...GLUTWERK_VAN, start: '2027-01-12T09:00:00+01:00' })
+      .query({ serviceType: 'parking-conversion-auto', jobAt: 'owner', ...place, country: 'AT', ...GLUTWERK_VAN, start: '2027-01-12T09:00:00+01:00' })
       .expect(200);
     const q = res.body.data;
     expect(q.partner).toBeUndefined();
@@ -84,6 +84,29 @@ describe('GET /api/partners/:partnerId/quote', () => {
     expect(res.body.data.vat).toMatchObject({ treatment: 'reverse-charge', rateBp: 0, note: REVERSE_CHARGE_NOTE });
     expect(res.body.data.vatMinor).toBe(0);
     expect(res.body.data.grossMinor).toBe(27_860);
+  });
+
+  it('asks for the country rather than guessing it: a private customer\'s quote without `country` is 422 VAT_UNDECIDABLE', async () => {
+    // Council Directive 2006/112/EC, Art. 54(2)(b): a consumer pays the VAT of the country where the work is done
+    const res = await request(t.app)
+      .get(`/api/partners/${await glutwerk()}/quote`)
+      .query({ serviceType: 'parking-conversion-auto', jobAt: 'owner', lat: 47.5192, lng: 11.4041, ...GLUTWERK_VAN })
+      .expect(422);
+    expectProblem(res, 422, 'VAT_UNDECIDABLE');
+    expect(res.body.detail).toMatch(/country/);
+  });
+
+  it('work in Bavaria for an Austrian partner: a consumer pays DE 19 % (Art. 54(2)(b)), an Austrian business AT 20 % (Art. 44)', async () => {
+    const quote = async (extra: object) =>
+      (await request(t.app).get(`/api/partners/${await glutwerk()}/quote`).query({ serviceType: 'parking-conversion-auto', jobAt: 'owner', lat: 47.5192, lng: 11.4041, country: 'DE', ...GLUTWERK_VAN, start: '2027-01-12T09:00:00+01:00', ...extra }).expect(200)).body.data;
+    const consumer = await quote({});
+    // by hand: 180.00 × 19 % = 34.20; 85.00 × 19 % = 16.15; 13.60 × 19 % = 2.584 → 2.58; 52.93 VAT
+    expect(consumer.vat).toMatchObject({ treatment: 'standard', country: 'DE', rateBp: 1900, rule: { code: 'b2c-work-place', article: 'Art. 54(2)(b)' } });
+    expect(consumer.vatMinor).toBe(5_293);
+    const business = await quote({ vatId: 'ATU13585627' });
+    // by hand: 278.60 × 20 % = 55.72 (per line 36.00 + 17.00 + 2.72)
+    expect(business.vat).toMatchObject({ treatment: 'standard', country: 'AT', rateBp: 2000, rule: { code: 'b2b-domestic', article: 'Art. 44', params: { workCountry: 'DE', customerCountry: 'AT', placeOfSupply: 'AT' } } });
+    expect(business.vatMinor).toBe(5_572);
   });
 
   it('refuses a vehicle the service does not fit with the rule\'s own words on serviceType', async () => {

@@ -121,6 +121,7 @@ const problemDescriptions: Record<number, string> = {
   409: 'Conflict',
   413: 'The upload is too large',
   415: 'The body or file type is not accepted',
+  422: 'The request is well formed but cannot be processed as it stands',
   429: 'Too many requests',
   500: 'Unexpected error',
   503: 'Temporarily unavailable',

@@ -24,6 +24,8 @@ export function createError(code: string, status: number, title: string) {
 export const NotFound = createError('NOT_FOUND', 404, 'Not found');
 export const RouteNotFound = createError('ROUTE_NOT_FOUND', 404, 'There is no such API route');
 export const ValidationFailed = createError('VALIDATION_FAILED', 400, 'Some fields need your attention');
+/** The data does not decide the VAT (a country is missing): asked for, never guessed. */
+export const VatUndecidable = createError('VAT_UNDECIDABLE', 422, 'The VAT cannot be worked out from what was given');
 export const MalformedJson = createError('MALFORMED_JSON', 400, 'The request body is not valid JSON');
 export const MalformedUrl = createError('MALFORMED_URL', 400, 'The address is not validly encoded');
 export const UnsupportedMediaType = createError('UNSUPPORTED_MEDIA_TYPE', 415, 'The request body is not in a format this route accepts');

@@ -31,12 +31,12 @@ export function registerBookingRoutes(api: ApiRouter, app: AppContext): void {
       path: '/partners/:partnerId/quote',
       summary: 'What a service with an approved partner would cost',
       description:
-        'Labour (the offer), the parts kit and, for work at the owner\'s place (`lat`, `lng` inside the partner\'s area and within its travel reach, else 400 on both), the travel fee from the partner\'s base; VAT per line for the country where the work is done (`country`, else the partner\'s; the workshop\'s for work there), or reverse charge for a business customer with a VAT ID of another EU country. A vehicle the service does not fit is 400 on `serviceType` with the rule\'s message. The same computation prices the booking.',
+        'Labour (the offer), the parts kit and, for work at the owner\'s place (`lat`, `lng` inside the partner\'s area and within its travel reach, else 400 on both), the travel fee from the partner\'s base; VAT per line by the case table, named in `vat.rule`: a private customer pays the VAT of the country where the work is done (`country` of the place, the workshop\'s for work there; Council Directive 2006/112/EC Art. 54(2)(b)), a business (`vatId`) that of the country it is established in (Art. 44), by reverse charge when that is another country than the partner\'s (Art. 196), and no EU VAT outside the EU. When a country the VAT needs is missing the answer is 422 VAT_UNDECIDABLE, never a guessed country. A vehicle the service does not fit is 400 on `serviceType` with the rule\'s message. The same computation prices the booking.',
       tags: ['Bookings'],
       params: z.object({ partnerId: IdSchema }),
       query: QuotePreviewQuerySchema,
       response: z.object({ data: OwnerQuoteSchema }),
-      problems: [404],
+      problems: [404, 422],
     },
     c.previewQuote,
   );
@@ -54,7 +54,7 @@ export function registerBookingRoutes(api: ApiRouter, app: AppContext): void {
       body: BookingRequestSchema,
       response: One,
       status: 201,
-      problems: [409, 503],
+      problems: [409, 422, 503],
     },
     c.create,
   );

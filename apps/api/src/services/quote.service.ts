@@ -10,6 +10,7 @@ import {
   isInServiceArea,
   isValidVatId,
   travelFee,
+  VatUndecidableError,
   type Cancellation,
   type Currency,
   type Deposit,
@@ -23,7 +24,7 @@ import {
   type WorkingHours,
   type WorkMode,
 } from '@emberline/domain';
-import { ValidationFailed } from '../lib/errors';
+import { ValidationFailed, VatUndecidable } from '../lib/errors';
 import { activeRules } from './eligibility-rules.service';
 import { json } from './offers.service';
 import { APPROVED_PARTNER_SQL } from './partners.service';
@@ -71,8 +72,8 @@ export interface JobPlan {
   /** Where the work is done: the owner's place or the partner's base. */
   location: GeoPoint;
   travel: (TravelFee & { freeWithinKm: number }) | null;
-  /** Where the work is physically done, for VAT. */
-  workCountry: string;
+  /** Where the work is physically done, for VAT; null when nobody said (the VAT rules decide whether that matters). */
+  workCountry: string | null;
   /** Technicians on the offer with valid hours (the first one's zone dates the supply). */
   technicians: { id: string; hours: WorkingHours }[];
 }
@@ -144,7 +145,7 @@ export async function planJob(manager: EntityManager, input: JobInput, paths: Fi
 
   let location: GeoPoint;
   let travel: JobPlan['travel'] = null;
-  let workCountry: string;
+  let workCountry: string | null;
   if (input.jobAt === 'owner') {
     if (partner.mode === 'workshop') throw invalid([{ path: paths.jobAt, message: 'This partner works only at its workshop: choose the workshop' }]);
     if (!input.place) {
@@ -165,12 +166,13 @@ export async function planJob(manager: EntityManager, input: JobInput, paths: Fi
     }
     location = { lat: input.place.lat, lng: input.place.lng };
     travel = { ...fee, freeWithinKm };
-    workCountry = input.placeCountry ?? partner.country ?? 'AT';
+    // never the partner's country in its place: across a border that would be the wrong VAT
+    workCountry = input.placeCountry ?? null;
   } else {
     if (partner.mode === 'mobile') throw invalid([{ path: paths.jobAt, message: 'This partner comes to you and has no workshop: choose your place' }]);
     location = partner.base;
     // the work is done at the workshop, in the partner's own country
-    workCountry = partner.country ?? input.placeCountry ?? 'AT';
+    workCountry = partner.country;
   }
 
   const kit = kitRows.map((k) => ({ partId: k.part_id, name: k.name, quantity: Number(k.quantity), unitPriceMinor: Number(k.unit_price_minor) }));
@@ -200,24 +202,39 @@ export async function planJob(manager: EntityManager, input: JobInput, paths: Fi
 /** The local date (YYYY-MM-DD) of `at` in `zone`: the day of the supply, which picks the VAT rate. */
 export const localDate = (at: Date, zone: string) => DateTime.fromJSDate(at, { zone }).toISODate()!;
 
-/** The quote of a planned job: labour, the parts kit and the travel, with VAT where the work is done. */
+/**
+ * The quote of a planned job: labour, the parts kit and the travel, with VAT by the domain's case
+ * table; 422 VAT_UNDECIDABLE when a country it needs is missing, rather than a guessed one.
+ */
 export function quoteFor(plan: JobPlan, settings: QuoteSettings, o: { vatId?: string | null; supplyDate: string }): Quote {
   const lines: QuoteInput['lines'][number][] = [{ kind: 'labour', description: plan.serviceType.name, netMinor: plan.offer.priceMinor }];
   if (plan.kit.length) lines.push({ kind: 'parts', description: `Parts kit (${plan.kit.reduce((n, k) => n + k.quantity, 0)} pieces)`, netMinor: plan.partsMinor });
   if (plan.travel) lines.push({ kind: 'travel', description: `Travel, ${plan.travel.roadKm} km by road (${plan.travel.freeWithinKm} km free)`, netMinor: plan.travel.feeMinor });
-  return computeQuote({
-    currency: plan.offer.currency,
-    lines,
-    workCountry: plan.workCountry,
-    supplierCountry: plan.partner.country ?? plan.workCountry,
-    customer: o.vatId ? { kind: 'business', vatId: o.vatId } : { kind: 'consumer' },
-    supplyDate: o.supplyDate,
-    deposit: plan.offer.deposit,
-    cancellation: plan.offer.cancellation,
-    commissionBp: settings.commissionBp,
-    processingFee: settings.processingFee,
-  });
+  try {
+    return computeQuote({
+      currency: plan.offer.currency,
+      lines,
+      workCountry: plan.workCountry,
+      supplierCountry: plan.partner.country,
+      customer: o.vatId ? { kind: 'business', vatId: o.vatId } : { kind: 'consumer' },
+      supplyDate: o.supplyDate,
+      deposit: plan.offer.deposit,
+      cancellation: plan.offer.cancellation,
+      commissionBp: settings.commissionBp,
+      processingFee: settings.processingFee,
+    });
+  } catch (err) {
+    if (err instanceof VatUndecidableError) throw VatUndecidable(VAT_UNDECIDABLE_DETAIL[err.reason]);
+    throw err;
+  }
 }
+
+const VAT_UNDECIDABLE_DETAIL: Record<VatUndecidableError['reason'], string> = {
+  'work-country-missing': 'Say in which country the vehicle will be (the country of the address): for a private customer the VAT is that of the country where the work is done.',
+  'supplier-country-missing': 'This partner has not said in which country it is established, so the VAT cannot be worked out. Choose another partner.',
+  'customer-country-missing': 'The VAT ID does not say which country the business is in.',
+  'country-unknown': 'There are no VAT rates for this country, so no price can be given there.',
+};
 
 /** Checks a VAT ID given as a query parameter (the booking's schema checks its own). */
 export function checkVatId(vatId: string | undefined, path: string): void {
