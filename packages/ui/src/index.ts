@@ -10,6 +10,7 @@ export * from './composables/use-async-data';
 export * from './composables/use-format';
 export * from './composables/use-media-query';
 export { default as sharedEn, type SharedMessages } from './locales/en';
+export { vatRulesDe } from './locales/vat-rules';
 export { default as StateBlock } from './components/state-block.vue';
 export { default as CautionList } from './components/caution-list.vue';
 export { default as BrandMark } from './components/brand-mark.vue';

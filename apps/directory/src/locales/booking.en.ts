@@ -167,6 +167,7 @@ const bookingEn = {
       netTotal: 'Net total',
       vatTotal: 'VAT {rate} ({country})',
       vatReverse: 'VAT, reverse charge ({country})',
+      vatNone: 'No EU VAT ({country})',
       total: 'Total',
       reverseTitle: 'Reverse charge.',
       reverseText: 'Your business accounts for the VAT, so none is charged here.',

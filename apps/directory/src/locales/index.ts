@@ -1,12 +1,13 @@
 // vue-i18n for the Directory: shared strings plus the app's own; German slots in beside English.
 import { createI18n } from 'vue-i18n';
-import { sharedEn } from '@emberline/ui';
+import { sharedEn, vatRulesDe } from '@emberline/ui';
 import bookingNavEn from './booking-nav.en';
 import en from './en';
 import garageEn from './garage.en';
 import plannerEn from './planner.en';
 
-export const messages = { en: { ...sharedEn, ...en, ...plannerEn, ...garageEn, ...bookingNavEn } };
+// German so far only for what the quote says about VAT; everything else falls back to English
+export const messages = { en: { ...sharedEn, ...en, ...plannerEn, ...garageEn, ...bookingNavEn }, de: { vatRules: vatRulesDe } };
 export type MessageSchema = (typeof messages)['en'];
 
 export const i18n = createI18n({

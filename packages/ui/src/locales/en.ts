@@ -1,6 +1,9 @@
 // Strings shared by both apps: brand, common states, errors and the safety cautions.
 // Caution keys are the CautionCode values from @emberline/domain.
+import { vatRulesEn } from './vat-rules';
+
 const en = {
+  vatRules: vatRulesEn,
   brand: {
     name: 'Emberline',
     network: 'Emberline Northern Network',
