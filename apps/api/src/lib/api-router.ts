@@ -12,7 +12,7 @@ import { HttpError, PayloadTooLarge, UnsupportedMediaType, ValidationFailed } fr
 import { ANONYMOUS, type Actor } from './context';
 import type { Guards } from '../middleware/auth';
 
-type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
+export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 type AnyObject = z.ZodObject;
 
 export interface RouteSpec<Q extends AnyObject, P extends AnyObject, B extends z.ZodType, R extends z.ZodType> {
@@ -127,6 +127,23 @@ const problemDescriptions: Record<number, string> = {
   503: 'Temporarily unavailable',
 };
 
+const pascal = (words: string) => words.split(/[^A-Za-z0-9]+/).filter(Boolean).map((w) => w[0]!.toUpperCase() + w.slice(1)).join('');
+
+/**
+ * The operationId of a route, from its method and OpenAPI path below the mount point:
+ * `get /api/orgs/{orgId}/bookings/{bookingId}` is `getOrgsByOrgIdBookingsByBookingId`. Made from
+ * what identifies the operation anyway, so it stays the same while the route does (generated
+ * clients name their functions by it), and it is unique when the camel-cased paths are.
+ */
+export function operationIdFor(method: Method, openApiPath: string, mountPath: string): string {
+  const below = openApiPath.startsWith(mountPath) ? openApiPath.slice(mountPath.length) : openApiPath;
+  const segments = below.split('/').filter(Boolean).map((segment) => {
+    const param = /^\{(.+)\}$/.exec(segment);
+    return param ? `By${pascal(param[1]!)}` : pascal(segment);
+  });
+  return method + segments.join('');
+}
+
 /** Runs multer for one file and turns its errors into problem details (413 for a file too large). */
 function multipartUpload(spec: { fileField: string; maxBytes: number }): RequestHandler {
   const parse = multer({
@@ -170,6 +187,17 @@ export class ApiRouter {
     private readonly guards: Guards,
   ) {
     registry.registerComponent('securitySchemes', 'bearerAuth', { type: 'http', scheme: 'bearer', bearerFormat: 'JWT' });
+  }
+
+  private readonly operationIds = new Map<string, string>();
+
+  /** The route's operationId (see operationIdFor); two routes that would share one fail at start-up. */
+  operationId(method: Method, openApiPath: string): string {
+    const id = operationIdFor(method, openApiPath, this.mountPath);
+    const taken = this.operationIds.get(id);
+    if (taken) throw new Error(`${method} ${openApiPath} and ${taken} would share the operationId ${id}`);
+    this.operationIds.set(id, `${method} ${openApiPath}`);
+    return id;
   }
 
   route<Q extends AnyObject, P extends AnyObject, B extends z.ZodType, R extends z.ZodType>(
@@ -239,10 +267,12 @@ export class ApiRouter {
     this.registry.registerPath({
       method: spec.method,
       path: openApiPath,
+      operationId: this.operationId(spec.method, openApiPath),
       summary: spec.summary,
       description: spec.description,
       tags: spec.tags,
-      security: needsAuth ? [{ bearerAuth: [] }] : spec.optionalAuth ? [{}, { bearerAuth: [] }] : undefined,
+      // public operations say so: an empty list is "no security needed", a missing one "unspecified"
+      security: needsAuth ? [{ bearerAuth: [] }] : spec.optionalAuth ? [{}, { bearerAuth: [] }] : [],
       request: {
         query: spec.query as RouteParameter,
         params: spec.params as RouteParameter,

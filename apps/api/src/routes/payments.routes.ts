@@ -28,6 +28,9 @@ export function registerPaymentWebhook(api: ApiRouter, app: AppContext): void {
   api.registry.registerPath({
     method: 'post',
     path: `${api.mountPath}${WEBHOOK_PATH}`,
+    operationId: api.operationId('post', `${api.mountPath}${WEBHOOK_PATH}`),
+    // no bearer token: the provider's signature over the body authenticates it
+    security: [],
     summary: 'Events from the payments provider (for the provider only)',
     description:
       'Note: not for clients. The body is the provider\'s event JSON, read raw and verified against the signature header the provider sends; a bad or missing signature is 400 and changes nothing. Each event is applied once, by its id: a repeated delivery answers 200 with `duplicate: true`. A failure to apply it (e.g. the provider unreachable) answers 5xx, so the provider delivers it again.',
