@@ -13,6 +13,7 @@ import type { Config } from './config';
 import type { Logger } from './lib/logger';
 import { redactUrl } from './lib/redact';
 import { useMailSecretKey } from './mail/secret-data';
+import { useMailSender } from './mail/sender';
 import { ApiRouter } from './lib/api-router';
 import { apiNotFound, problemDetails } from './middleware/problem-details';
 import { createGuards, type Guards } from './middleware/auth';
@@ -136,6 +137,7 @@ export function createApp(deps: AppDeps): EmberlineApp {
   const registry = new OpenAPIRegistry();
   app.openApiRegistry = registry;
   useMailSecretKey(deps.dataSource, deps.jwtSecret);
+  useMailSender(deps.dataSource, deps.config.MAIL_FROM);
 
   const context: AppContext = {
     ...deps,

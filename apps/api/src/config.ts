@@ -8,6 +8,7 @@ import { DEFAULT_PASSWORD_HASH_COST } from './lib/password-hash';
 export const projectRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../..');
 
 /** Credentials of the local payments fake (apps/api/src/fakes/payments); refused in production. */
+export const DEFAULT_MAIL_FROM = 'Emberline <no-reply@emberline.invalid>';
 export const LOCAL_PAYMENTS_SECRET_KEY = 'sk_test_emberline_local';
 export const LOCAL_PAYMENTS_WEBHOOK_SECRET = 'whsec_emberline_local';
 
@@ -105,7 +106,7 @@ export const EnvSchema = z.object({
   PASSWORD_HASH_COST: passwordHashCost,
   /** Where mail goes: the local capture server in development and tests, the real relay in production. */
   SMTP_URL: z.url({ protocol: /^smtps?$/, error: 'must be an smtp:// or smtps:// URL' }).default('smtp://127.0.0.1:2525'),
-  MAIL_FROM: z.string().trim().min(3).max(254).default('Emberline <no-reply@emberline.invalid>'),
+  MAIL_FROM: z.string().trim().min(3).max(254).default(DEFAULT_MAIL_FROM),
   /** HTTP API of the mail capture server (development and tests only), e.g. http://127.0.0.1:2580. */
   MAIL_CAPTURE_URL: z.url({ protocol: /^https?$/ }).optional(),
   /** Runs the scheduled jobs (outbox sender) in this process; the jobs lock, so several instances may. */

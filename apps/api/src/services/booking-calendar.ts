@@ -12,6 +12,8 @@ export interface CalendarBooking {
   end: Date;
   serviceName: string;
   partnerName: string;
+  /** The address ORGANIZER names (the partner, reached through the network's no-reply sender). */
+  organizerEmail: string;
   place: string;
   location: { lat: number; lng: number };
   sequence: number;
@@ -32,6 +34,9 @@ export function bookingCalendar(b: CalendarBooking): string {
     uid: calendarUid(b.id),
     productId: 'emberline/bookings',
     method: 'PUBLISH',
+    // RFC 5546 §3.2.1: a PUBLISH event must name its ORGANIZER
+    // a parameter value may hold no DQUOTE (RFC 5545 §3.1), and the writer would escape it wrongly
+    organizer: { name: b.partnerName.replaceAll('"', "'"), email: b.organizerEmail },
     // instants in UTC ("…Z"): the reader shows them in its own zone
     start: b.start.getTime(),
     startInputType: 'utc',

@@ -16,6 +16,7 @@ import { createError } from '../lib/errors';
 import type { Logger } from '../lib/logger';
 import { enqueueMail } from '../mail/outbox';
 import type { MailMoney, MailTemplateData, MailWhen } from '../mail/render';
+import { senderAddressOf } from '../mail/sender';
 import type { PaymentGateway } from '../payments/gateway';
 import { PaymentRejected } from '../payments/errors';
 import { audit } from './audit.service';
@@ -171,7 +172,7 @@ async function partnerPeople(manager: EntityManager, r: BookingRow): Promise<Per
 }
 
 /** The calendar invitation of a booking as an e-mail attachment. */
-export function calendarText(r: BookingRow, publicUrl: string): string {
+export function calendarText(manager: EntityManager, r: BookingRow, publicUrl: string): string {
   return bookingCalendar({
     id: r.id,
     reference: r.reference,
@@ -180,6 +181,7 @@ export function calendarText(r: BookingRow, publicUrl: string): string {
     end: new Date(r.end_at),
     serviceName: r.service_name,
     partnerName: r.partner_name,
+    organizerEmail: senderAddressOf(manager),
     place: placeOf(r),
     location: { lat: Number(r.job_lat), lng: Number(r.job_lng) },
     sequence: Number(r.calendar_sequence),
@@ -202,7 +204,7 @@ async function mailOwner<T extends OwnerTemplate>(
     template,
     locale: owner.locale,
     data: data(owner),
-    attachments: o.calendar ? [{ filename: `booking-${r.reference}.ics`, contentType: 'text/calendar; charset=utf-8; method=PUBLISH', content: Buffer.from(calendarText(r, ctx.publicUrl), 'utf8').toString('base64') }] : undefined,
+    attachments: o.calendar ? [{ filename: `booking-${r.reference}.ics`, contentType: 'text/calendar; charset=utf-8; method=PUBLISH', content: Buffer.from(calendarText(ctx.manager, r, ctx.publicUrl), 'utf8').toString('base64') }] : undefined,
   });
 }
 

@@ -225,7 +225,7 @@ export async function getOwnerBooking(ctx: ServiceContext, id: string, now: Date
 /** The booking as an iCalendar file for the owner. */
 export async function ownerCalendar(ctx: ServiceContext, id: string, publicUrl: string): Promise<{ reference: string; text: string }> {
   const row = await findBookingRow(ctx.manager, id, ownerScope(ctx));
-  return { reference: row.reference, text: calendarText(row, publicUrl) };
+  return { reference: row.reference, text: calendarText(ctx.manager, row, publicUrl) };
 }
 
 /**
