@@ -2,7 +2,7 @@
 // refreshes once on a 401; `authHttp` is for /api/auth/*, where the refresh cookie is the
 // credential and a 401 must not trigger a refresh. The session store connects itself later,
 // so the clients never import the store.
-import { createHttpClient, type HttpClient } from './http';
+import { ApiError, createHttpClient, type HttpClient } from './http';
 
 export interface SessionHooks {
   getAccessToken: () => string | null;
@@ -39,3 +39,9 @@ export const SESSION_HINT_COOKIE = 'emberline_session';
 export function hasSessionHint(cookie: string = globalThis.document?.cookie ?? ''): boolean {
   return cookie.split(';').some((c) => c.trim().startsWith(`${SESSION_HINT_COOKIE}=`));
 }
+
+/** What a session store asks of this client: is there a session to restore, has it ended. */
+export const sessionSignals = {
+  hasSessionHint: () => hasSessionHint(),
+  isSessionEnded: (error: unknown) => error instanceof ApiError && error.status === 401,
+};

@@ -3,6 +3,7 @@
 import { computed, ref } from 'vue';
 import { defineStore } from 'pinia';
 import type { Membership, Role } from '@emberline/domain';
+import { sessionSignals } from '@emberline/api-client';
 import { createSessionCore } from '@emberline/ui/session';
 import * as auth from '@/api/auth';
 import { connectSession } from '@/api/http';
@@ -26,7 +27,7 @@ function storeChoice(id: string): void {
 }
 
 export const useSessionStore = defineStore('session', () => {
-  const core = createSessionCore(auth, connectSession);
+  const core = createSessionCore(auth, connectSession, sessionSignals);
   /** The organisation picked in the switcher; only used while the user is a member of it. */
   const chosenOrganisationId = ref<string | null>(readChoice());
   const memberships = computed<Membership[]>(() => core.user.value?.memberships ?? []);

@@ -3,12 +3,13 @@
 import { computed } from 'vue';
 import { defineStore } from 'pinia';
 import type { Role } from '@emberline/domain';
+import { sessionSignals } from '@emberline/api-client';
 import { createSessionCore } from '@emberline/ui/session';
 import * as auth from '@/api/auth';
 import { connectSession } from '@/api/http';
 
 export const useSessionStore = defineStore('session', () => {
-  const core = createSessionCore(auth, connectSession);
+  const core = createSessionCore(auth, connectSession, sessionSignals);
   /** Owners act for no organisation; kept so both apps' stores read alike. */
   const currentOrganisationId = computed(() => core.user.value?.memberships[0]?.organisationId ?? null);
   const roles = computed<Role[]>(() => {

@@ -2,8 +2,22 @@
 // only, one refresh at a time (reusing a refresh token revokes the whole session family), and a
 // restore at start-up that runs only when the browser holds a session to restore.
 import { computed, ref } from 'vue';
-import { ApiError, hasSessionHint, type SessionHooks } from '@emberline/api-client';
 import type { Me, Session, SignIn } from '@emberline/domain';
+
+/** What the HTTP client asks of the session (the same shape as the API client's hooks). */
+export interface SessionHooks {
+  getAccessToken: () => string | null;
+  /** Resolves true when a new access token is in place. */
+  refresh: () => Promise<boolean>;
+}
+
+/** What the core needs to know from the API client; passed in so this package does not depend on it. */
+export interface SessionSignals {
+  /** True when the browser holds a session worth restoring. */
+  hasSessionHint: () => boolean;
+  /** True when an error means the session is over (the server answered 401). */
+  isSessionEnded: (error: unknown) => boolean;
+}
 
 export interface SessionAuthApi {
   refreshSession(): Promise<Session>;
@@ -11,7 +25,7 @@ export interface SessionAuthApi {
   signOut(): Promise<unknown>;
 }
 
-export function createSessionCore(auth: SessionAuthApi, connectSession: (hooks: SessionHooks) => void) {
+export function createSessionCore(auth: SessionAuthApi, connectSession: (hooks: SessionHooks) => void, signals: SessionSignals) {
   const user = ref<Me | null>(null);
   const accessToken = ref<string | null>(null);
   const isSignedIn = computed(() => user.value !== null);
@@ -39,7 +53,7 @@ export function createSessionCore(auth: SessionAuthApi, connectSession: (hooks: 
         return true;
       } catch (error) {
         // 401: the session is over. Anything else (offline) leaves us without a usable token too.
-        if ((error instanceof ApiError && error.status === 401) || !accessToken.value) clear();
+        if (signals.isSessionEnded(error) || !accessToken.value) clear();
         return false;
       } finally {
         refreshing = null;
@@ -50,7 +64,7 @@ export function createSessionCore(auth: SessionAuthApi, connectSession: (hooks: 
 
   /** Once per page load, before the first navigation; without a session hint there is nothing to ask. */
   function restore(): Promise<void> {
-    restoring ??= hasSessionHint() ? refresh().then(() => undefined) : Promise.resolve();
+    restoring ??= signals.hasSessionHint() ? refresh().then(() => undefined) : Promise.resolve();
     return restoring;
   }
 
