@@ -8,7 +8,6 @@ import {
   CapabilitySchema,
   DocumentSchema,
   ProblemDetailsSchema,
-  PublicPartnerSchema,
   type Application,
   type ApplicationReview,
   type ApplicationSummary,
@@ -20,7 +19,6 @@ import {
   type DocumentKind,
   type OrganisationStatus,
   type PartnerDocument,
-  type PublicPartner,
   type ReviewChecklist,
   CapabilityInputSchema,
   CapabilityPatchSchema,
@@ -34,7 +32,6 @@ const DocumentResponseSchema = z.object({ data: DocumentSchema });
 const SummaryListSchema = z.object({ data: z.array(ApplicationSummarySchema) });
 const CapabilityResponseSchema = z.object({ data: CapabilitySchema });
 const CapabilityListResponseSchema = z.object({ data: z.array(CapabilitySchema) });
-const PartnerListSchema = z.object({ data: z.array(PublicPartnerSchema) });
 const AnyResponseSchema = z.unknown();
 
 const ApplicationReviewResponseSchema = z.object({ data: ApplicationReviewSchema });
@@ -214,9 +211,4 @@ export async function createCapability(http: HttpClient, body: CapabilityInput):
 
 export async function updateCapability(http: HttpClient, code: string, body: CapabilityPatch): Promise<Capability> {
   return (await http.request('PATCH', `/api/admin/capabilities/${seg(code)}`, { body, schema: CapabilityResponseSchema })).data;
-}
-
-/** Approved partners as the public Directory sees them. */
-export async function listPartners(http: HttpClient, signal?: AbortSignal): Promise<PublicPartner[]> {
-  return (await http.request('GET', '/api/partners', { schema: PartnerListSchema, signal })).data;
 }

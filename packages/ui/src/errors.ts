@@ -1,5 +1,5 @@
 // The one way users see errors: problem details turned into words, shown with ant-design-vue.
-import { message, notification } from 'ant-design-vue';
+import { notification } from 'ant-design-vue';
 import type { ProblemDetails } from '@emberline/domain';
 
 type Translate = (key: string, named?: Record<string, unknown>) => string;
@@ -35,8 +35,4 @@ export function showError(error: unknown, t: Translate): void {
     message: text.title,
     description: text.requestId ? `${text.detail} ${t('errors.reference', { id: text.requestId })}` : text.detail,
   });
-}
-
-export function showNotice(text: string): void {
-  void message.info(text);
 }

@@ -28,9 +28,6 @@ export const radii = { small: 6, base: 10, large: 16 } as const;
 
 export const space = { xs: 4, sm: 8, md: 16, lg: 24, xl: 40, xxl: 64 } as const;
 
-/** Breakpoints in px, mobile first. */
-export const breakpoints = { tablet: 768, desktop: 1024, wide: 1280 } as const;
-
 export const emberlineTheme: ThemeConfig = {
   token: {
     colorPrimary: colors.ember,

@@ -47,8 +47,6 @@ export interface SearchState {
   vehicle: VehicleFields;
 }
 
-export const emptyVehicle = (): VehicleFields => ({ model: '', fuel: '', factoryHeater: '', climateControl: '', electricalSystemV: '', year: '' });
-
 const first = (value: LocationQuery[string] | undefined): string => {
   const v = Array.isArray(value) ? value[0] : value;
   return typeof v === 'string' ? v.trim() : '';
