@@ -28,7 +28,7 @@ function vanInput(overrides: Partial<PreheatInputDraft> = {}): PreheatInputDraft
   return { ...PANEL_VAN_PRESET.values, outsideTemperatureC: -15, departure: DEPARTURE, ...overrides };
 }
 
-describe('specific heats and densities used by the code (REFERENCES.md)', () => {
+describe('specific heats and densities used by the code (handbook tables named per check)', () => {
   it('water cp is 4.182 kJ/(kg·K) — Incropera, Table A.6', () => {
     expect(WATER_SPECIFIC_HEAT.value).toBe(4.182);
     expect(coolantSpecificHeat('water', 20)).toBe(4.182);
@@ -59,12 +59,12 @@ describe('specific heats and densities used by the code (REFERENCES.md)', () => 
   it('the planner takes glycol cp midway between outside and target: −20 °C and 60 °C → 20 °C → 3.32 kJ/(kg·K) — Conde (2011)', () => {
     const a = buildThermalModel(PreheatInputSchema.parse(vanInput({ outsideTemperatureC: -20, targetCoolantTemperatureC: 60, coolantVolumeL: 5 })));
     const b = buildThermalModel(PreheatInputSchema.parse(vanInput({ outsideTemperatureC: -20, targetCoolantTemperatureC: 60, coolantVolumeL: 10 })));
-    // 5 L more coolant at 1.07 kg/L (from memory, not in REFERENCES.md).
+    // 5 L more coolant at 1.07 kg/L (from memory).
     const extraMassKg = 5 * 1.07;
     expect((b.parameters.c1JPerK - a.parameters.c1JPerK) / extraMassKg).toBeCloseTo(3320, 6);
   });
 
-  it('coolant densities at 20 °C: water 998 kg/m³, 50 % glycol 1070 kg/m³ — from memory (not in REFERENCES.md)', () => {
+  it('coolant densities at 20 °C: water 998 kg/m³, 50 % glycol 1070 kg/m³ — from memory', () => {
     expect(COOLANT_DENSITY_20C.water.value).toBe(998);
     expect(COOLANT_DENSITY_20C['ethylene-glycol-50'].value).toBe(1070);
   });
@@ -77,7 +77,7 @@ describe('specific heats and densities used by the code (REFERENCES.md)', () => 
   });
 });
 
-describe('fuels (REFERENCES.md)', () => {
+describe('fuels (EN 590, EN 228, IPCC 2006 Guidelines)', () => {
   it('lower heating values: diesel 43.0 MJ/kg, petrol 44.3 MJ/kg — IPCC 2006 Guidelines, Vol. 2, Table 1.2', () => {
     expect(FUEL_PROPERTIES.diesel.lowerHeatingValueMJPerKg).toBe(43.0);
     expect(FUEL_PROPERTIES.petrol.lowerHeatingValueMJPerKg).toBe(44.3);
@@ -90,14 +90,14 @@ describe('fuels (REFERENCES.md)', () => {
     expect(FUEL_PROPERTIES.petrol.densityKgPerM3).toBeLessThanOrEqual(775);
   });
 
-  it('worked check: 5 kW at 85 % burns 0.4925 kg/h of diesel, about 0.59 L/h at 832 kg/m³ — REFERENCES.md', () => {
+  it('worked check: 5 kW at 85 % burns 0.4925 kg/h of diesel, about 0.59 L/h at 832 kg/m³ — worked from IPCC 2006 Vol. 2 Table 1.2 and an EN 590 density', () => {
     const rate = fuelPerHour(5000, 0.85, 'diesel');
     expect(rate.kg).toBeCloseTo(0.4925, 4);
     expect(FUEL_PROPERTIES.diesel.densityKgPerM3).toBe(832);
     expect(rate.litres).toBeCloseTo(0.59, 2);
   });
 
-  it('the planner burns that rate for the warm-up time — REFERENCES.md worked check rate', () => {
+  it('the planner burns that rate for the warm-up time — the worked IPCC/EN 590 rate above', () => {
     const plan = planPreheat(vanInput({ heaterOutputKw: 5, combustionEfficiency: 0.85, fuel: 'diesel' }));
     expect(plan.timeToTargetMinutes).not.toBeNull();
     expect(plan.fuel.kg).toBeCloseTo((0.4925 * plan.timeToTargetMinutes!) / 60, 4);
@@ -107,16 +107,16 @@ describe('fuels (REFERENCES.md)', () => {
 describe('12 V lead-acid open-circuit voltage (BCI, 27 °C)', () => {
   const bci: Array<[number, number]> = [[100, 12.65], [75, 12.45], [50, 12.24], [25, 12.06], [0, 11.89]];
 
-  it('the table points reproduce exactly — BCI, 27 °C (REFERENCES.md)', () => {
+  it('the table points reproduce exactly — Battery Council International state-of-charge table, 27 °C', () => {
     expect(BCI_OPEN_CIRCUIT_VOLTAGE_12V).toHaveLength(5);
     for (const [soc, volts] of bci) expect(openCircuitVoltage(soc, 'flooded', 12)).toBeCloseTo(volts, 12);
   });
 
-  it('24 V systems read double — REFERENCES.md ("24 V systems: double")', () => {
+  it('24 V systems read double — Battery Council International table; a 24 V system is two 12 V batteries in series', () => {
     for (const [soc, volts] of bci) expect(openCircuitVoltage(soc, 'flooded', 24)).toBeCloseTo(2 * volts, 12);
   });
 
-  it('AGM reads 0.1–0.2 V higher — REFERENCES.md; the 0.15 V used is our choice inside that range', () => {
+  it('AGM reads 0.1–0.2 V higher — battery makers’ state-of-charge tables, from memory; the 0.15 V used is our choice inside that range', () => {
     for (const [soc] of bci) {
       const diff = openCircuitVoltage(soc, 'agm', 12) - openCircuitVoltage(soc, 'flooded', 12);
       expect(diff).toBeGreaterThanOrEqual(0.1);

@@ -14,11 +14,11 @@ import {
   type GeoPoint,
 } from '../../../packages/domain/src/geo';
 
-const R1 = 6_371_008.8; // IUGG mean radius, REFERENCES.md (geodesy)
+const R1 = 6_371_008.8; // IUGG mean radius R1 of GRS80 (Moritz, "Geodetic Reference System 1980", 1980)
 const point = fc.record({ lat: fc.double({ min: -90, max: 90, noNaN: true }), lng: fc.double({ min: -180, max: 180, noNaN: true }) });
 
 describe('greatCircleDistanceM on the sphere of radius R1', () => {
-  it('uses the IUGG mean radius 6 371 008.8 m — REFERENCES.md (geodesy)', () => {
+  it('uses the IUGG mean radius 6 371 008.8 m — GRS80 (Moritz 1980), the IUGG mean radius R1', () => {
     expect(MEAN_EARTH_RADIUS_M).toBe(R1);
   });
 

@@ -8,7 +8,7 @@ const MINUTE = 60_000;
 const INNSBRUCK = { lat: 47.2692, lng: 11.4041 };
 const MUNICH = { lat: 48.1351, lng: 11.582 };
 
-/** Haversine with the IUGG mean radius R1 = 6 371 008.8 m (REFERENCES.md, geodesy), written out here. */
+/** Haversine with the IUGG mean radius R1 = 6 371 008.8 m (IUGG; Moritz, "Geodetic Reference System 1980", Bulletin Géodésique 54, 1980), written out here. */
 function sphereKm(a: { lat: number; lng: number }, b: { lat: number; lng: number }): number {
   const r = Math.PI / 180;
   const h = Math.sin(((b.lat - a.lat) * r) / 2) ** 2 + Math.cos(a.lat * r) * Math.cos(b.lat * r) * Math.sin(((b.lng - a.lng) * r) / 2) ** 2;

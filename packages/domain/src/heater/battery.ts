@@ -8,7 +8,7 @@ export type SystemVoltage = (typeof SYSTEM_VOLTAGES)[number];
 
 /**
  * Open-circuit (rest) voltage of a 12 V flooded lead-acid battery against state of charge,
- * BCI, at 27 °C. Sourced (REFERENCES.md).
+ * BCI, at 27 °C. Sourced: Battery Council International state-of-charge table (docs/references.md).
  */
 export const BCI_OPEN_CIRCUIT_VOLTAGE_12V: ReadonlyArray<{ stateOfChargePercent: number; volts: number }> = [
   { stateOfChargePercent: 0, volts: 11.89 },
@@ -21,7 +21,7 @@ export const BCI_OCV_SOURCE = 'BCI open-circuit voltage table, 12 V lead-acid, 2
 
 /**
  * AGM batteries rest about 0.1–0.2 V higher than flooded ones at the same charge
- * (REFERENCES.md). The single offset used here, 0.15 V, is the middle of that range:
+ * (battery makers' tables, from memory). The single offset used here, 0.15 V, is the middle of that range:
  * a choice, not a sourced value.
  */
 export const AGM_OCV_OFFSET_12V = 0.15;
@@ -30,7 +30,7 @@ export const AGM_OCV_OFFSET_12V = 0.15;
  * Safe lower limit for a heater run: 50 % state of charge, about 12.24 V at rest (BCI).
  * The heater usually runs from the starter battery, which must still crank a cold engine
  * afterwards, and lead-acid life falls quickly with deeper discharge (common practice, no
- * source). The 10.5 V and 11.1–11.7 V cut-offs in REFERENCES.md are terminal voltages of a
+ * source). The 10.5 V and 11.1–11.7 V cut-offs commonly quoted (1.75 V per cell) are terminal voltages of a
  * battery under load, at which devices switch off; at rest they mean a nearly flat battery,
  * so they are too deep for a battery that must start the engine.
  */

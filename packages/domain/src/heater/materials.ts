@@ -46,7 +46,7 @@ export const ETHYLENE_GLYCOL_50_SOURCE = 'Conde (2011) correlation; ASHRAE Funda
  * filled (near room temperature), so mass = fill volume × density at 20 °C is the right
  * mass whatever temperature the coolant later reaches.
  * Both values are from memory (water: Incropera Table A.6 gives about 998 kg/m³;
- * 50 % glycol mixture: about 1.07 kg/L in handbook tables); not in REFERENCES.md.
+ * 50 % glycol mixture: about 1.07 kg/L in handbook tables).
  */
 export const COOLANT_DENSITY_20C: Readonly<Record<CoolantMixture, SourcedValue>> = {
   water: { value: 998, unit: 'kg/m³', source: 'from memory: Incropera, Table A.6, water at 20 °C' },

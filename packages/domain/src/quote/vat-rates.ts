@@ -2,7 +2,8 @@
 // entry for the same country. Rates in basis points (1/100 of a per cent: 25.5 % = 2550).
 // Source of the rates in force on 1 January 2026: European Commission, "VAT rates applied in the
 // Member States of the European Union" (Taxes in Europe Database); CH, NO and GB from their tax
-// authorities as listed in ../shared/REFERENCES.md. Earlier entries are from memory and only
+// authorities (Swiss Federal Tax Administration, Norwegian Tax Administration, HMRC), listed
+// in docs/references.md. Earlier entries are from memory and only
 // show that a change of rate is a new row, not an edit.
 
 import { DomainInputError } from '../errors';
