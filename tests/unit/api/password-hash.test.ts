@@ -52,7 +52,7 @@ describe('hashPassword and verifyPassword', () => {
 
   it('answers false, without throwing, for what is no hash or a tampered one', async () => {
     const good = await hashPassword('something-long', 4);
-    for (const stored of ['', 'bench-no-sign-in', '$2b$04$short', good.replace('ln=4', 'ln=30'), good.replace(/\$[^$]+$/, '$AAAA'), `${good.slice(0, -2)}xx`]) {
+    for (const stored of ['', 'bench-no-sign-in', '$2b$04$short', good.replace('ln=4', 'ln=30'), good.replace('r=8', 'r=64'), good.replace(/\$[^$]+$/, '$AAAA'), `${good.slice(0, -2)}xx`]) {
       expect(await verifyPassword('something-long', stored)).toBe(false);
     }
   });

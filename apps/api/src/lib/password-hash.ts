@@ -40,7 +40,7 @@ function parseScrypt(stored: string): ScryptHash | null {
   const m = PHC.exec(stored);
   if (!m) return null;
   const [ln, r, p] = [Number(m[1]), Number(m[2]), Number(m[3])];
-  if (ln < 1 || ln > MAX_COST || r < 1 || r > 16 || p < 1 || p > 4) return null;
+  if (ln < 1 || ln > MAX_COST || r < 1 || r > BLOCK_SIZE || p < 1 || p > 4) return null;
   const key = Buffer.from(m[5]!, 'base64');
   return key.length >= 16 ? { ln, r, p, salt: Buffer.from(m[4]!, 'base64'), key } : null;
 }
