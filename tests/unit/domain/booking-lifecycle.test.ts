@@ -18,8 +18,8 @@ describe('BOOKING_TRANSITIONS', () => {
     expect(canTransition('completed', 'confirmed', 'partner')).toBe(false);
   });
 
-  it('only live bookings take a technician\'s time', () => {
-    expect([...OCCUPYING_STATUSES].sort()).toEqual(['confirmed', 'held', 'in_progress', 'requested']);
+  it('live and completed bookings take a technician\'s time', () => {
+    expect([...OCCUPYING_STATUSES].sort()).toEqual(['completed', 'confirmed', 'held', 'in_progress', 'requested']);
   });
 });
 

@@ -1,5 +1,7 @@
-// The one table of allowed booking transitions and who may make each; and what cancelling
-// costs under an offer's policy.
+// The one table of allowed booking transitions and who may make each; when a job may start; and
+// what cancelling costs under an offer's policy.
+import { DateTime } from 'luxon';
+import { DomainInputError } from '../errors';
 import type { BookingActor, BookingStatus } from '../schemas/bookings';
 
 export interface Transition {
@@ -48,4 +50,33 @@ export function ownerCancellation(policy: { freeUntilHours: number; feeMinor: nu
   const free = startMs - now.getTime() >= policy.freeUntilHours * 3_600_000;
   const feeMinor = free ? 0 : Math.min(policy.feeMinor, paidMinor);
   return { allowed: true, feeMinor, refundMinor: paidMinor - feeMinor };
+}
+
+/** The network's default for how long before the appointment a job may be started. */
+export const DEFAULT_JOB_START_WINDOW_MINUTES = 120;
+
+/**
+ * When a confirmed job may be started: from `windowMinutes` before its start, but never before the
+ * appointment's local day begins in the partner's zone, until that day ends. Starting early let a
+ * job be "done" days ahead and its money taken with nobody on site.
+ */
+export function jobStartWindow(start: Date | string, timeZone: string, windowMinutes: number): { from: Date; until: Date } {
+  const startDt = DateTime.fromJSDate(typeof start === 'string' ? new Date(start) : start, { zone: timeZone });
+  if (!startDt.isValid) throw new DomainInputError(`Cannot place ${String(start)} in the zone ${timeZone}`);
+  if (!Number.isInteger(windowMinutes) || windowMinutes < 0) throw new DomainInputError(`A start window of ${windowMinutes} minutes is not a whole number of minutes`);
+  const dayStart = startDt.startOf('day');
+  // plus({ days: 1 }) keeps the wall clock, so a 23- or 25-hour day ends at the next local midnight
+  const dayEnd = dayStart.plus({ days: 1 });
+  const early = startDt.minus({ minutes: windowMinutes });
+  return { from: (early < dayStart ? dayStart : early).toJSDate(), until: dayEnd.toJSDate() };
+}
+
+export type JobStartCheck = { allowed: true } | { allowed: false; reason: 'too-early' | 'day-over'; from: Date; until: Date };
+
+/** Whether a confirmed job may be started at `now` (see jobStartWindow). */
+export function checkJobStart(start: Date | string, timeZone: string, windowMinutes: number, now: Date): JobStartCheck {
+  const w = jobStartWindow(start, timeZone, windowMinutes);
+  if (now.getTime() < w.from.getTime()) return { allowed: false, reason: 'too-early', ...w };
+  if (now.getTime() >= w.until.getTime()) return { allowed: false, reason: 'day-over', ...w };
+  return { allowed: true };
 }

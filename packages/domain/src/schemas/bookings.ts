@@ -28,8 +28,11 @@ export const BOOKING_STATUSES = [
 export const BookingStatusSchema = z.enum(BOOKING_STATUSES);
 export type BookingStatus = z.infer<typeof BookingStatusSchema>;
 
-/** Statuses that keep the technician's time taken (a held slot only until its hold expires). */
-export const OCCUPYING_STATUSES: readonly BookingStatus[] = ['held', 'requested', 'confirmed', 'in_progress'];
+/**
+ * Statuses that keep the technician's time taken (a held slot only until its hold expires). A
+ * completed job keeps its time too: finishing early must not offer the rest of it to someone else.
+ */
+export const OCCUPYING_STATUSES: readonly BookingStatus[] = ['held', 'requested', 'confirmed', 'in_progress', 'completed'];
 
 export const BOOKING_ACTORS = ['owner', 'partner', 'system'] as const;
 export type BookingActor = (typeof BOOKING_ACTORS)[number];
