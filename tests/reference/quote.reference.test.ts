@@ -67,9 +67,9 @@ describe('computeQuote — worked examples, by hand', () => {
     ]);
     expect(q).toMatchObject({ netMinor: 29_060, vatMinor: 5_812, grossMinor: 34_872, vat: { treatment: 'standard', country: 'AT', rateBp: 2000 } });
     // deposit 20 % of 34 872 = 6 974.4 → 6 974; commission 12 % of (18 000 + 2 560) = 2 467.2 → 2 467;
-    // partner share 29 060 − 2 467 = 26 593; processing 1.5 % of 34 872 = 523.08 → 523, + 25 = 548
+    // processing 1.5 % of 34 872 = 523.08 → 523, + 25 = 548; partner share 29 060 − 2 467 − 548 = 26 045
     expect(q.depositMinor).toBe(6_974);
-    expect(q.partner).toEqual({ commissionBp: 1200, commissionMinor: 2_467, partnerShareMinor: 26_593, processingFeeEstimateMinor: 548 });
+    expect(q.partner).toEqual({ commissionBp: 1200, commissionMinor: 2_467, partnerShareMinor: 26_045, processingFeeEstimateMinor: 548 });
     expect(q.cancellation).toEqual({ freeUntilHours: 24, feeMinor: 5_000 });
   });
 
@@ -121,7 +121,7 @@ describe('computeQuote — worked examples, by hand', () => {
 describe('computeQuote properties (fast-check)', () => {
   const line = fc.record({ kind: fc.constantFrom('labour' as const, 'parts' as const, 'travel' as const), description: fc.constant('x'), netMinor: fc.integer({ min: 0, max: 10_000_000 }) });
   const country = fc.constantFrom(...Object.keys(EC_RATES_2026), 'NO', 'CH');
-  it('total = sum of lines, net + VAT = gross, nothing negative, commission + partner share = net', () => {
+  it('total = sum of lines, net + VAT = gross, nothing negative but a tiny job\'s share, commission + fee + partner share = net', () => {
     fc.assert(
       fc.property(fc.array(line, { minLength: 1, maxLength: 6 }), country, fc.integer({ min: 0, max: 3000 }), fc.integer({ min: 1, max: 100 }), (lines, c, commissionBp, percent) => {
         const q = computeQuote({ ...conversion, lines, workCountry: c, supplierCountry: c, commissionBp, deposit: { kind: 'percent', percent } });
@@ -131,8 +131,8 @@ describe('computeQuote properties (fast-check)', () => {
         expect(q.grossMinor).toBe(s((l) => l.grossMinor));
         expect(q.netMinor + q.vatMinor).toBe(q.grossMinor);
         for (const l of q.lines) expect(l.netMinor + l.vatMinor).toBe(l.grossMinor);
-        expect(q.partner.commissionMinor + q.partner.partnerShareMinor).toBe(q.netMinor);
-        for (const v of [q.vatMinor, q.depositMinor, q.partner.commissionMinor, q.partner.partnerShareMinor, q.partner.processingFeeEstimateMinor]) expect(v).toBeGreaterThanOrEqual(0);
+        expect(q.partner.commissionMinor + q.partner.processingFeeEstimateMinor + q.partner.partnerShareMinor).toBe(q.netMinor);
+        for (const v of [q.vatMinor, q.depositMinor, q.partner.commissionMinor, q.partner.processingFeeEstimateMinor]) expect(v).toBeGreaterThanOrEqual(0);
         expect(q.depositMinor).toBeLessThanOrEqual(q.grossMinor);
       }),
       { numRuns: 300 },

@@ -121,7 +121,7 @@ export async function insertBooking(
     vat: { treatment: 'standard', country: 'AT', rateBp: 2000, validFrom: '2016-01-01', note: null },
     depositMinor: 0,
     cancellation: { freeUntilHours: 24, feeMinor: 0 },
-    partner: { commissionBp: 1200, commissionMinor: 540, partnerShareMinor: 3960, processingFeeEstimateMinor: 106 },
+    partner: { commissionBp: 1200, commissionMinor: 540, partnerShareMinor: 3854, processingFeeEstimateMinor: 106 },
   };
   await ds.query(
     `INSERT INTO booking (id, reference, organisation_id, technician_user_id, owner_user_id, offer_id, service_type_id, status, start_at, end_at, time_zone, job_at, job_lat, job_lng,

@@ -239,11 +239,30 @@ describe('Console booking detail', () => {
     expect(map.attributes('data-lat')).toBe('47.2654');
     expect(wrapper.find('[data-testid="quote-gross"]').text()).toBe('€65.52');
     const share = wrapper.find('[data-testid="partner-share"]').text();
-    expect(share).toContain('Network commission (12%)');
-    expect(share).toContain('€56.40');
+    expect(share).toContain('Network commission (12% of labour and travel)');
+    expect(share).toContain('€45.48');
     expect(wrapper.find('[data-payment="authorised"]').text()).toBe('Held on the owner’s card');
     expect(wrapper.findAll('[data-testid="booking-cautions"] [data-caution]').map((c) => c.attributes('data-caution'))).toEqual(['vehicle-electrics', 'exhaust-gas']);
     expect(wrapper.findAll('[data-testid="booking-history"] li')).toHaveLength(2);
+  });
+
+  it('shows the partner\'s share line by line, and the lines add up: 318.00 − 53.00 VAT = 265.00 − 21.60 − 5.02 = 238.38', async () => {
+    const quote = booking().quote;
+    const wrapper = await mountDetail(
+      booking({
+        quote: { ...quote, netMinor: 26_500, vatMinor: 5_300, grossMinor: 31_800 },
+        partnerQuote: { commissionBp: 1200, commissionMinor: 2_160, partnerShareMinor: 23_838, processingFeeEstimateMinor: 502 },
+      }),
+    );
+    const rows = wrapper.findAll('[data-testid="share-lines"] > div').map((d) => [d.attributes('data-line'), d.find('dt').text(), d.find('dd').text()]);
+    expect(rows).toEqual([
+      ['gross', 'The owner pays', '€318.00'],
+      ['vat', 'VAT for your VAT return (Austria, 20%)', '− €53.00'],
+      ['net', 'Net price', '€265.00'],
+      ['commission', 'Network commission (12% of labour and travel)', '− €21.60'],
+      ['processing-fee', 'Payment fee (estimate)', '− €5.02'],
+      ['share', 'Your share', '€238.38'],
+    ]);
   });
 
   it('shows the workshop address for work at the workshop, without a map', async () => {

@@ -40,7 +40,7 @@ export function booking(overrides: Partial<Booking> = {}): Booking {
       depositMinor: 0,
       cancellation: { freeUntilHours: 24, feeMinor: 1500 },
     },
-    partnerQuote: { commissionBp: 1200, commissionMinor: 786, partnerShareMinor: 5640, processingFeeEstimateMinor: 126 },
+    partnerQuote: { commissionBp: 1200, commissionMinor: 786, partnerShareMinor: 4548, processingFeeEstimateMinor: 126 },
     payment: { status: 'authorised', authorisedMinor: 6552, capturedMinor: 0, refundedMinor: 0 },
     holdExpiresAt: null,
     checkoutUrl: null,

@@ -1100,10 +1100,13 @@ const en = {
     share: {
       title: 'Your share',
       gross: 'The owner pays',
-      commission: 'Network commission ({rate})',
+      vat: 'VAT for your VAT return ({country}, {rate})',
+      vatReverse: 'VAT (reverse charge: the customer accounts for it)',
+      net: 'Net price',
+      commission: 'Network commission ({rate} of labour and travel)',
       fee: 'Payment fee (estimate)',
-      yours: 'You receive',
-      note: 'Paid out with your monthly statement; the payment fee is known once the money is taken.',
+      share: 'Your share',
+      note: 'Your share is paid out with your monthly statement, together with the VAT you declare; the payment fee is final once the money is taken.',
     },
     payment: {
       title: 'Payment',

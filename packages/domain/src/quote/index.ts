@@ -1,4 +1,5 @@
 export * from './vat-rates';
 export * from './vat-rules';
 export * from './quote';
+export * from './partner-share';
 export * from './lifecycle';

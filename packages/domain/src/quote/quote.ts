@@ -6,6 +6,7 @@
 import { add, allocate, dinero, halfUp, multiply, toSnapshot, transformScale, type Dinero, type DineroCurrency } from 'dinero.js';
 import { DomainInputError } from '../errors';
 import { CancellationSchema, DepositSchema, type Cancellation, type Currency, type Deposit } from '../schemas/offers';
+import { partnerShareLines } from './partner-share';
 import type { VatRateEntry } from './vat-rates';
 import { vatTreatment, type Customer, type VatOutcome, type VatSupply } from './vat-rules';
 
@@ -56,6 +57,7 @@ export interface Quote {
   depositMinor: number;
   /** Free until `freeUntilHours` before the start, then `feeMinor` (never more than the gross). */
   cancellation: { freeUntilHours: number; feeMinor: number };
+  /** The share is the net less commission and fee estimate (`partnerShareLines`); the VAT stays the partner's to declare. */
   partner: { commissionBp: number; commissionMinor: number; partnerShareMinor: number; processingFeeEstimateMinor: number };
 }
 
@@ -114,10 +116,12 @@ export function computeQuote(input: QuoteInput): Quote {
   if (input.deposit.kind === 'fixed') depositMinor = input.deposit.amountMinor;
   if (input.deposit.kind === 'percent') depositMinor = shareOf(currency, grossMinor, input.deposit.percent * 100);
 
-  // commission on labour and travel; the partner keeps the rest of the net (parts in full)
+  // commission on labour and travel only (parts pass through at cost to the partner)
   const commissionBase = sum((l) => (l.kind === 'parts' ? 0 : l.netMinor));
   const commissionMinor = shareOf(currency, commissionBase, input.commissionBp);
-  const processingFeeEstimateMinor = shareOf(currency, grossMinor, input.processingFee.percentBp) + input.processingFee.fixedMinor;
+  // nothing taken from the owner, nothing for the provider to charge
+  const processingFeeEstimateMinor = grossMinor === 0 ? 0 : shareOf(currency, grossMinor, input.processingFee.percentBp) + input.processingFee.fixedMinor;
+  const { shareMinor } = partnerShareLines({ grossMinor, vatMinor, commissionMinor, processingFeeEstimateMinor });
 
   return {
     currency,
@@ -129,7 +133,7 @@ export function computeQuote(input: QuoteInput): Quote {
     vat,
     depositMinor,
     cancellation: { freeUntilHours: input.cancellation.freeUntilHours, feeMinor: Math.min(input.cancellation.feeMinor, grossMinor) },
-    partner: { commissionBp: input.commissionBp, commissionMinor, partnerShareMinor: netMinor - commissionMinor, processingFeeEstimateMinor },
+    partner: { commissionBp: input.commissionBp, commissionMinor, partnerShareMinor: shareMinor, processingFeeEstimateMinor },
   };
 }
 
