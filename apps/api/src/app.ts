@@ -7,20 +7,16 @@ import cookieParser from 'cookie-parser';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
-import type { DataSource } from 'typeorm';
 import { OpenAPIRegistry } from '@asteasolutions/zod-to-openapi';
-import type { Config } from './config';
-import type { Logger } from './lib/logger';
 import { redactUrl } from './lib/redact';
 import { useMailSecretKey } from './mail/secret-data';
 import { useMailSender } from './mail/sender';
 import { ApiRouter } from './lib/api-router';
 import { apiNotFound, problemDetails } from './middleware/problem-details';
-import { createGuards, type Guards } from './middleware/auth';
-import { createLimiters, type LimitSettings, type Limiters } from './middleware/rate-limits';
-import type { AuthSettings } from './services/auth.service';
-import { createStorage, type Storage } from './storage';
-import { createPaymentGateway, type PaymentGateway } from './payments/gateway';
+import { createGuards } from './middleware/auth';
+import { createLimiters } from './middleware/rate-limits';
+import { createStorage } from './storage';
+import { createPaymentGateway } from './payments/gateway';
 import { registerAccountRoutes } from './routes/account.routes';
 import { registerAdminRoutes } from './routes/admin.routes';
 import { registerAuthRoutes } from './routes/auth.routes';
@@ -37,31 +33,7 @@ import { registerEligibilityRuleRoutes } from './routes/eligibility-rules.routes
 import { registerBookingRoutes } from './routes/bookings.routes';
 import { registerPaymentWebhook } from './routes/payments.routes';
 import { docsRouter } from './routes/docs.routes';
-
-export interface AppDeps {
-  config: Config;
-  dataSource: DataSource;
-  logger: Logger;
-  version: string;
-  /** Signs access tokens; from JWT_SECRET, or generated into var/ in development. */
-  jwtSecret: string;
-  limits?: Partial<LimitSettings>;
-  /** Where uploaded documents go; by default the driver the configuration names (tests pass a temporary directory). */
-  storage?: Storage;
-  /** Prefix of this app's rate-limit counters in the database; instances sharing it share limits (tests give each app its own). */
-  limitScope?: string;
-  /** The payments provider; by default the SDK against the configured API base (tests pass one at a local fake). */
-  payments?: PaymentGateway;
-}
-
-/** What route modules and controllers get: the dependencies plus what createApp builds from them. */
-export interface AppContext extends AppDeps {
-  storage: Storage;
-  payments: PaymentGateway;
-  authSettings: AuthSettings;
-  limiters: Limiters;
-  guards: Guards;
-}
+import type { AppContext, AppDeps } from './app-context';
 
 export interface EmberlineApp extends Express {
   /** The OpenAPI registry every route was declared in (tests enumerate it). */

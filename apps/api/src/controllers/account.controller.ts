@@ -1,5 +1,5 @@
 // The signed-in user's own account.
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { Actor } from '../lib/context';
 import * as account from '../services/account.service';
 

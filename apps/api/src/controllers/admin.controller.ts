@@ -1,5 +1,5 @@
 // Network-admin handlers: e-mail log and audit log.
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { Actor } from '../lib/context';
 import * as admin from '../services/admin.service';
 

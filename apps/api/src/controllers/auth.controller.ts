@@ -2,7 +2,7 @@
 // Mutations run in one transaction each, so an e-mail is queued only with the change it reports.
 import type { Request, Response } from 'express';
 import { passwordProblems, type AcceptInvitation, type OwnerSignUp, type PartnerSignUp } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { Actor } from '../lib/context';
 import { ValidationFailed } from '../lib/errors';
 import * as auth from '../services/auth.service';

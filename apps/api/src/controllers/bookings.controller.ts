@@ -4,7 +4,7 @@
 import type { Response } from 'express';
 import type { z } from 'zod';
 import type { BookingDecision, BookingListQuerySchema, BookingRequestSchema, QuotePreviewQuerySchema } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { Actor } from '../lib/context';
 import * as bookings from '../services/bookings.service';
 import type { BookingContext } from '../services/booking-lifecycle.service';

@@ -1,6 +1,6 @@
 // Catalogue handlers: take validated input, call the service, shape the response.
 import type { CapabilityCategory } from '@emberline/domain';
-import type { AppDeps } from '../app';
+import type { AppDeps } from '../app-context';
 import { ANONYMOUS } from '../lib/context';
 import * as catalogue from '../services/catalogue.service';
 

@@ -1,7 +1,7 @@
 // Handlers for the vehicle rules: the public list, and network admins' changes.
 import type { EntityManager } from 'typeorm';
 import type { EligibilityRule } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { Actor } from '../lib/context';
 import * as rules from '../services/eligibility-rules.service';
 import { forgetSearchCatalogue } from '../services/search-catalogue';

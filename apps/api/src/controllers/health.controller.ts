@@ -1,6 +1,6 @@
 // Health handler: 200 when the database answers and is fully migrated, 503 otherwise.
 import type { Response } from 'express';
-import type { AppDeps } from '../app';
+import type { AppDeps } from '../app-context';
 import { checkHealth } from '../services/health.service';
 
 export function healthController({ dataSource, version }: AppDeps) {

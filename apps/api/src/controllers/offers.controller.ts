@@ -1,7 +1,7 @@
 // Handlers for an organisation's offers, parts, travel policy and working hours (org guard ran first).
 import type { EntityManager } from 'typeorm';
 import type { OfferInput, OfferPatch, PartInput, PartPatch, ServiceAreaInput, TravelPolicyInput, WorkingHoursDraft } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { Actor } from '../lib/context';
 import * as offers from '../services/offers.service';
 import { notifyCoverageAlerts } from '../services/coverage.service';

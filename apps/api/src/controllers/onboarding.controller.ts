@@ -4,7 +4,7 @@ import type { Response } from 'express';
 import type { EntityManager } from 'typeorm';
 import type { z } from 'zod';
 import type { AreaStepSchema, BusinessStepSchema, CapabilitiesStep, DocumentKind } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { Actor } from '../lib/context';
 import { NotFound } from '../lib/errors';
 import * as onboarding from '../services/onboarding.service';

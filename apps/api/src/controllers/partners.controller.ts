@@ -1,5 +1,5 @@
 // Public Directory handlers for partners: approved organisations only.
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { Actor } from '../lib/context';
 import type { SlotsQuery } from '@emberline/domain';
 import { getPartnerProfile, listPublicPartners } from '../services/partners.service';

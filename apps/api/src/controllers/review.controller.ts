@@ -2,7 +2,7 @@
 import type { EntityManager } from 'typeorm';
 import type { z } from 'zod';
 import type { CapabilityInputSchema, CapabilityPatchSchema, DecisionSchema, ReviewChecklist } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { Actor } from '../lib/context';
 import * as catalogue from '../services/catalogue.service';
 import { todayUtc } from '../services/onboarding.service';

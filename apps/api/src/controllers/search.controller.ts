@@ -1,7 +1,7 @@
 // Public Directory handlers for the search, places and coverage alerts; the network's coverage gaps.
 import type { Request, Response } from 'express';
 import type { CoverageAlertInput, SearchQuery } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { Actor } from '../lib/context';
 import { resolveMailLocale } from '../mail/render';
 import { createAlert, listGaps } from '../services/coverage.service';

@@ -1,7 +1,7 @@
 // Team handlers for /orgs/:orgId: the caller's organisation was resolved by the org guard.
 import type { EntityManager } from 'typeorm';
 import type { Invite, MemberRole } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { Actor } from '../lib/context';
 import * as team from '../services/team.service';
 

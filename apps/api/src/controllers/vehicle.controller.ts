@@ -1,6 +1,6 @@
 // Garage handlers for the signed-in owner.
 import type { VehicleInput } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { Actor } from '../lib/context';
 import * as garage from '../services/vehicle.service';
 

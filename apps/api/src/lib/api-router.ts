@@ -10,6 +10,7 @@ import { ProblemDetailsSchema, type FieldError } from '@emberline/domain';
 import type { Role } from '@emberline/domain';
 import { HttpError, PayloadTooLarge, UnsupportedMediaType, ValidationFailed } from './errors';
 import { ANONYMOUS, type Actor } from './context';
+import { toFieldErrors } from './field-errors';
 import type { Guards } from '../middleware/auth';
 
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -58,12 +59,6 @@ export interface RouteInput<Q, P, B> {
   file: Express.Multer.File | undefined;
 }
 
-export function toFieldErrors(error: z.ZodError, prefix?: string): FieldError[] {
-  return error.issues.map((issue) => ({
-    path: [prefix, ...issue.path.map(String)].filter(Boolean).join('.'),
-    message: issue.message,
-  }));
-}
 
 // a high surrogate not followed by a low one, or a low one not preceded by a high one
 const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;

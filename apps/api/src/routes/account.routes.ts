@@ -1,6 +1,6 @@
 // The signed-in user's own account.
 import { MeResponseSchema, UpdateAccountSchema } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { ApiRouter } from '../lib/api-router';
 import { accountController } from '../controllers/account.controller';
 

@@ -1,7 +1,7 @@
 // Network-admin routes.
 import { z } from 'zod';
 import { AuditEntrySchema, IdSchema, MAIL_STATUSES, MailLogEntrySchema, queryNumber } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { ApiRouter } from '../lib/api-router';
 import { adminController } from '../controllers/admin.controller';
 

@@ -13,7 +13,7 @@ import {
   TokenSchema,
   VerifyEmailSchema,
 } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { ApiRouter } from '../lib/api-router';
 import { authController } from '../controllers/auth.controller';
 

@@ -12,7 +12,7 @@ import {
   OwnerQuoteSchema,
   QuotePreviewQuerySchema,
 } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { ApiRouter } from '../lib/api-router';
 import { bookingsController } from '../controllers/bookings.controller';
 

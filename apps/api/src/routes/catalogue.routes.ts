@@ -1,7 +1,7 @@
 // Public catalogue routes: service types and capabilities.
 import { z } from 'zod';
 import { CapabilityCategorySchema, CapabilityListSchema, CatalogueCodeSchema, ServiceTypeListSchema, ServiceTypeSchema } from '@emberline/domain';
-import type { AppDeps } from '../app';
+import type { AppDeps } from '../app-context';
 import type { ApiRouter } from '../lib/api-router';
 import { catalogueController } from '../controllers/catalogue.controller';
 

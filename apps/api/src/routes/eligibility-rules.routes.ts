@@ -1,7 +1,7 @@
 // The vehicle rules: read publicly (what the search applies), changed by network admins.
 import { z } from 'zod';
 import { CatalogueCodeSchema, EligibilityRuleInputSchema, EligibilityRuleListSchema, EligibilityRuleSchema } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { ApiRouter } from '../lib/api-router';
 import { eligibilityRulesController } from '../controllers/eligibility-rules.controller';
 

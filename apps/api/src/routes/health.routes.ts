@@ -1,6 +1,6 @@
 // Health route for load balancers, the start script and people.
 import { HealthResponseSchema } from '@emberline/domain';
-import type { AppDeps } from '../app';
+import type { AppDeps } from '../app-context';
 import type { ApiRouter } from '../lib/api-router';
 import { healthController } from '../controllers/health.controller';
 

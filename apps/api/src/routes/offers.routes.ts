@@ -16,7 +16,7 @@ import {
   TravelPolicySchema,
   WorkingHoursSchema,
 } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { ApiRouter } from '../lib/api-router';
 import { offersController } from '../controllers/offers.controller';
 

@@ -12,7 +12,7 @@ import {
   UPLOAD_TYPES,
   documentFieldsSchema,
 } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { ApiRouter } from '../lib/api-router';
 import { onboardingController } from '../controllers/onboarding.controller';
 import { todayUtc } from '../services/onboarding.service';

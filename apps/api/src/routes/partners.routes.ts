@@ -1,7 +1,7 @@
 // Public Directory routes for partners.
 import { z } from 'zod';
 import { IdSchema, MAX_SLOT_SEARCH_DAYS, PartnerProfileSchema, PartnerSlotsSchema, PublicPartnerSchema, SLOT_LIST_LIMIT, SlotsQuerySchema } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { ApiRouter } from '../lib/api-router';
 import { partnersController } from '../controllers/partners.controller';
 

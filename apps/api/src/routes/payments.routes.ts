@@ -4,7 +4,7 @@
 import express from 'express';
 import { z } from 'zod';
 import { ProblemDetailsSchema } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { ApiRouter } from '../lib/api-router';
 import { WEBHOOK_SIGNATURE_HEADER } from '../payments/gateway';
 import { processPaymentEvent } from '../services/payment-events.service';

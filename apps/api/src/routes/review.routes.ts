@@ -13,7 +13,7 @@ import {
   OrganisationStatusSchema,
   ReviewUpdateSchema,
 } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { ApiRouter } from '../lib/api-router';
 import { reviewController } from '../controllers/review.controller';
 

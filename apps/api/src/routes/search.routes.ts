@@ -12,7 +12,7 @@ import {
   SearchQuerySchema,
   SearchResponseSchema,
 } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { ApiRouter } from '../lib/api-router';
 import { searchController } from '../controllers/search.controller';
 import { COVERAGE_GAP_CELLS_MAX, COVERAGE_RETENTION_DAYS } from '../services/coverage.service';

@@ -1,7 +1,7 @@
 // Organisation-scoped team routes under /orgs/:orgId.
 import { z } from 'zod';
 import { ChangeRoleSchema, IdSchema, InvitationSchema, InviteSchema, OrganisationSummarySchema, TeamSchema } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { ApiRouter } from '../lib/api-router';
 import { teamController } from '../controllers/team.controller';
 

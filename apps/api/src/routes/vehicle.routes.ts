@@ -1,7 +1,7 @@
 // The owner's garage under /me/vehicles.
 import { z } from 'zod';
 import { IdSchema, VehicleInputSchema, VehicleListSchema, VehiclePatchSchema, VehicleResponseSchema } from '@emberline/domain';
-import type { AppContext } from '../app';
+import type { AppContext } from '../app-context';
 import type { ApiRouter } from '../lib/api-router';
 import { vehicleController } from '../controllers/vehicle.controller';
 

@@ -22,7 +22,7 @@ import { PaymentRejected } from '../payments/errors';
 import { audit } from './audit.service';
 import { bookingCalendar } from './booking-calendar';
 import { customerOf, findBookingRow, kitOf, minor, placeOf, type BookingRow, type PaymentStatus } from './booking-records';
-import { json } from './offers.service';
+import { json } from '../lib/json-column';
 import { occupiedTimes, slotWindow } from './occupied-times';
 import { consoleLinks, directoryLinks } from './recipients';
 

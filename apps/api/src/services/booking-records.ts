@@ -11,7 +11,7 @@ import {
   type VehicleProfile,
 } from '@emberline/domain';
 import { NotFound } from '../lib/errors';
-import { json } from './offers.service';
+import { json } from '../lib/json-column';
 import type { KitLine } from './quote.service';
 
 export type PaymentStatus = Booking['payment']['status'];

@@ -40,7 +40,7 @@ import { addressOf, BOOKING_SELECT, cancellationNow, customerOf, findBookingRow,
 import { quoteSettings } from './network-settings';
 import { directoryLinks } from './recipients';
 import { BODY_PATHS, checkVatId, localDate, planJob, QUERY_PATHS, quoteFor } from './quote.service';
-import { offerTechnicians } from './slots.service';
+import { offerTechnicians } from './offer-technicians';
 
 export const BookingPaid = createError('BOOKING_PAID', 409, 'The booking is paid already');
 export const RescheduleClosed = createError('RESCHEDULE_CLOSED', 409, 'The booking can no longer be moved');

@@ -5,7 +5,7 @@ import { EligibilityRuleInputSchema, type EligibilityRule, type EligibilityRuleI
 import type { ServiceContext } from '../lib/context';
 import { createError, NotFound, ValidationFailed } from '../lib/errors';
 import { audit } from './audit.service';
-import { json } from './offers.service';
+import { json } from '../lib/json-column';
 
 export const RuleExists = createError('RULE_EXISTS', 409, 'A rule with this code exists already');
 

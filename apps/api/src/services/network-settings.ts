@@ -2,7 +2,7 @@
 // estimate, kept as rows of network_setting (written by the bookings migration).
 import type { EntityManager } from 'typeorm';
 import { z } from 'zod';
-import { json } from './offers.service';
+import { json } from '../lib/json-column';
 
 const SettingsSchema = z.object({
   'platform-commission': z.object({ bp: z.number().int().min(0).max(10_000) }),

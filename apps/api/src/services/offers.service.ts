@@ -26,6 +26,7 @@ import type { ServiceContext } from '../lib/context';
 import { createError, NotFound, ValidationFailed } from '../lib/errors';
 import { audit } from './audit.service';
 import { newId } from '../lib/secure-token';
+import { json } from '../lib/json-column';
 
 export const OfferExists = createError('OFFER_EXISTS', 409, 'The service type is already offered');
 export const PartInUse = createError('PART_IN_USE', 409, 'The part is in a parts kit');
@@ -41,8 +42,6 @@ function orgOf(ctx: ServiceContext): string {
   return ctx.actor.organisationId;
 }
 
-/** MariaDB hands JSON columns back as text. */
-export const json = <T>(v: unknown): T => (typeof v === 'string' ? (JSON.parse(v) as T) : (v as T));
 const iso = (v: Date | string) => (v instanceof Date ? v : new Date(v)).toISOString();
 
 // ---- parts ----

@@ -17,7 +17,7 @@ import {
   type OrganisationStatus,
   type PartnerDocument,
 } from '@emberline/domain';
-import { toFieldErrors } from '../lib/api-router';
+import { toFieldErrors } from '../lib/field-errors';
 import { CapabilityEntity, OrganisationCapabilityEntity, OrganisationEntity, PartnerDocumentEntity, PartnerProfileEntity } from '../entities';
 import type { ServiceContext } from '../lib/context';
 import { createError, NotFound, ValidationFailed } from '../lib/errors';

@@ -5,8 +5,8 @@ import { weeklyUnion, type CautionCode, type Currency, type PartnerProfile, type
 import { CapabilityEntity, OrganisationCapabilityEntity, OrganisationEntity, PartnerProfileEntity } from '../entities';
 import type { ServiceContext } from '../lib/context';
 import { NotFound } from '../lib/errors';
-import { json } from './offers.service';
-import { offerTechnicians } from './slots.service';
+import { json } from '../lib/json-column';
+import { offerTechnicians } from './offer-technicians';
 
 /**
  * What "listed in the Directory" means, in SQL over `organisation o JOIN partner_profile p ON

@@ -26,9 +26,9 @@ import {
 } from '@emberline/domain';
 import { ValidationFailed, VatUndecidable } from '../lib/errors';
 import { activeRules } from './eligibility-rules.service';
-import { json } from './offers.service';
+import { json } from '../lib/json-column';
 import { APPROVED_PARTNER_SQL } from './partners.service';
-import { offerTechnicians } from './slots.service';
+import { offerTechnicians } from './offer-technicians';
 import type { QuoteSettings } from './network-settings';
 
 export interface JobInput {

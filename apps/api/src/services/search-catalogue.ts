@@ -5,7 +5,7 @@
 import type { EntityManager } from 'typeorm';
 import type { CautionCode } from '@emberline/domain';
 import { activeRules, type EligibilityRuleView } from './eligibility-rules.service';
-import { json } from './offers.service';
+import { json } from '../lib/json-column';
 
 export const SEARCH_CATALOGUE_TTL_MS = 30_000;
 

@@ -9,7 +9,7 @@ import type { DataSource, EntityManager } from 'typeorm';
 import { LATITUDE_BANDS_PER_DEGREE } from '../lib/sql-geo';
 import type { Currency, GeoPoint, WorkingHours, WorkMode } from '@emberline/domain';
 import { APPROVED_PARTNER_SQL } from './partners.service';
-import { parseHours } from './slots.service';
+import { parseHours } from './offer-technicians';
 
 export interface IndexedOffer {
   offerId: string;
