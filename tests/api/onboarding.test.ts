@@ -249,6 +249,32 @@ describe('the review queue', () => {
   });
 });
 
+describe('the review queue, longest waiting first', () => {
+  it('lists applications waiting for the network first (oldest first), then approved and suspended partners', async () => {
+    const stamp = Date.now().toString(36);
+    const orgs = [];
+    for (const name of ['Old approved', 'Older suspended', 'Waiting new', 'Waiting older']) {
+      const p = await partnerWithTeam(t.app, t.dataSource);
+      await fillApplication(t.app, p.admin, p.orgId, { business: { tradingName: `Order ${stamp} ${name}` } });
+      await request(t.app).post(`/api/orgs/${p.orgId}/application/submit`).set(bearer(p.admin)).expect(200);
+      orgs.push(p.orgId);
+    }
+    const [approved, suspended, waitingNew, inReview] = orgs as [string, string, string, string];
+    const age = (orgId: string, days: number, status: string) =>
+      t.dataSource.query('UPDATE organisation o JOIN partner_profile p ON p.organisation_id = o.id SET o.status = ?, p.submitted_at = p.submitted_at - INTERVAL ? DAY WHERE o.id = ?', [status, days, orgId]);
+    await age(approved, 40, 'approved');
+    await age(suspended, 90, 'suspended');
+    await age(waitingNew, 1, 'submitted');
+    await age(inReview, 5, 'in_review');
+    const nwa = await networkAdmin(t.app);
+    const ids = async (query: object) =>
+      (await request(t.app).get('/api/admin/applications').query({ q: `Order ${stamp}`, ...query }).set(bearer(nwa)).expect(200)).body.data.map((s: { organisationId: string }) => s.organisationId);
+    expect(await ids({ sort: 'waiting' })).toEqual([inReview, waitingNew, suspended, approved]);
+    // shortest wait first still keeps the waiting ones on top
+    expect(await ids({ sort: 'waiting', order: 'asc' })).toEqual([waitingNew, inReview, approved, suspended]);
+  });
+});
+
 describe('the capability catalogue', () => {
   it('lets network admins add, change, retire and restore capabilities, audited', async () => {
     const nwa = await networkAdmin(t.app);

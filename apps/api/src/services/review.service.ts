@@ -58,7 +58,9 @@ export async function listApplications(ctx: ServiceContext, filter: ApplicationF
   if (filter.sort === 'name') qb.orderBy('COALESCE(p.trading_name, o.name)', order);
   else {
     const submittedOrder = filter.sort === 'waiting' ? (order === 'ASC' ? 'DESC' : 'ASC') : order;
-    qb.orderBy('p.submitted_at IS NULL', 'ASC').addOrderBy('p.submitted_at', submittedOrder);
+    // those waiting for the network come first whichever way; an approved partner has not waited since
+    if (filter.sort === 'waiting') qb.orderBy('o.status IN (:...waiting)', 'DESC').setParameter('waiting', WAITING);
+    qb.addOrderBy('p.submitted_at IS NULL', 'ASC').addOrderBy('p.submitted_at', submittedOrder);
   }
   qb.addOrderBy('o.id', 'ASC');
   const rows: { id: string; name: string; status: OrganisationStatus; trading_name: string | null; country: string | null; city: string | null; submitted_at: Date | null; insurance_expires_on: string | null }[] =
