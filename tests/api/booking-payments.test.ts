@@ -1,7 +1,7 @@
 // Bookings with the payments fake: pay with a test card, the signed webhook moves the booking on,
 // the partner accepts, completes (the payment is captured) or declines (the hold is released),
 // the owner cancels inside or outside the free window (a fee is captured), moves or gives up a
-// booking; declined cards free the slot; webhooks are verified and applied exactly once.
+// booking; a declined card keeps the hold for another card; webhooks are verified and applied exactly once.
 // Test cards: Stripe documentation: testing — test card numbers. Calendar: RFC 5545.
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -35,7 +35,8 @@ const DAY_MS = 86_400_000;
 
 beforeAll(async () => {
   fake = await startPaymentsFake();
-  t = await createTestApp(fake.env);
+  // every test signs up owners of its own: more than the 20 sign-ups an hour one address may make
+  t = await createTestApp(fake.env, { limits: { signUp: { perIp: 100, perAccount: 5, windowMinutes: 60 } } });
   deliverWebhooksTo(fake, t.app);
   // free until 48 hours before the start, then a 20.00 fee
   P = await bookablePartner(t.app, t.dataSource, { cancellation: { freeUntilHours: 48, feeMinor: FEE }, stock: 5 });
@@ -51,6 +52,10 @@ const intentOf = (id: string) => fake.state().paymentIntents.find((pi) => pi.id 
 const sessionOf = (id: string) => fake.state().checkoutSessions.find((s) => s.id === id)!;
 const eventsOf = async (id: string) => Number((await t.dataSource.query('SELECT COUNT(*) AS n FROM booking_event WHERE booking_id = ?', [id]))[0].n);
 const paymentEvents = async () => Number((await t.dataSource.query('SELECT COUNT(*) AS n FROM payment_event'))[0].n);
+
+/** Another owner racing for the same time (one account: sign-ups are rate limited). */
+let rivalOwner: Promise<SignedIn> | null = null;
+const rival = () => (rivalOwner ??= newOwner(t.app, t.dataSource));
 
 /** A held booking of a new owner at the first free start (from `fromDays` days on). */
 async function held(o: { fromDays?: number } = {}) {
@@ -133,20 +138,43 @@ describe('paying and the partner\'s decisions', () => {
     }
   });
 
-  it('releases the slot when the card is declined, so it can be booked again', async () => {
+  it('keeps the hold and the payment page after a declined card, so another card can pay until the hold lapses', async () => {
     const { owner, booking, start } = await held();
-    expect(await slotStarts(t.app, P.orgId)).not.toContain(start);
     expect((await pay(fake, t.dataSource, booking.id, TEST_CARD.declined)).outcome).toBe('declined');
-    const b = await mine(owner, booking.id);
-    expect(b).toMatchObject({ status: 'released', payment: { status: 'failed', authorisedMinor: 0 } });
+    let b = await mine(owner, booking.id);
+    expect(b).toMatchObject({ status: 'held', payment: { status: 'failed', authorisedMinor: 0 } });
+    expect(b.checkoutUrl).toBeTruthy();
+    expect(Date.parse(b.holdExpiresAt)).toBeGreaterThan(Date.now());
     expect(b.history.at(-1).note).toContain('generic_decline');
-    // the payment page is closed: it cannot be paid later
-    expect(sessionOf((await bookingRow(t.dataSource, booking.id)).checkout_session_id).status).toBe('expired');
-    expect(await slotStarts(t.app, P.orgId)).toContain(start);
-    const again = await book(t.app, await newOwner(t.app, t.dataSource), bookingRequest(P.orgId, start));
+    // the time stays the owner's: nobody else can book it, and it is in her list
+    expect(sessionOf((await bookingRow(t.dataSource, booking.id)).checkout_session_id).status).toBe('open');
+    expect(await slotStarts(t.app, P.orgId)).not.toContain(start);
+    expectProblem(await book(t.app, await rival(), bookingRequest(P.orgId, start)), 409, 'SLOT_TAKEN');
+    expect(((await request(t.app).get('/api/bookings').set(bearer(owner)).expect(200)).body.data as { id: string }[]).map((x) => x.id)).toEqual([booking.id]);
+    // another card on the same page pays
+    expect((await pay(fake, t.dataSource, booking.id, TEST_CARD.succeeds)).outcome).toBe('succeeded');
+    b = await mine(owner, booking.id);
+    expect(b).toMatchObject({ status: 'requested', payment: { status: 'authorised', authorisedMinor: 7200 } });
+    expect(b.history.map((e: { to: string }) => e.to)).toEqual(['held', 'held', 'requested']);
+  });
+
+  it('resumes the owner\'s own hold when she books the same time again (back from the payment page)', async () => {
+    const { owner, booking, start } = await held();
+    const again = await book(t.app, owner, bookingRequest(P.orgId, start, { phone: '+43 512 000000', notes: 'Gate code 42' }));
     expect(again.status, JSON.stringify(again.body)).toBe(201);
-    // the owner's list leaves released bookings out
-    expect(((await request(t.app).get('/api/bookings').set(bearer(owner)).expect(200)).body.data as unknown[]).length).toBe(0);
+    expect(again.body.data).toMatchObject({ id: booking.id, status: 'held', customer: { phone: '+43 512 000000' }, notes: 'Gate code 42' });
+    const row = await bookingRow(t.dataSource, booking.id);
+    expect(again.body.data.checkoutUrl).toBe(row.checkout_url);
+    expect(fake.state().checkoutSessions.filter((s) => String(s.success_url).includes(booking.id))).toHaveLength(1);
+    // after a decline too; another owner still races and loses
+    expect((await pay(fake, t.dataSource, booking.id, TEST_CARD.declined)).outcome).toBe('declined');
+    expect((await book(t.app, owner, bookingRequest(P.orgId, start))).body.data.id).toBe(booking.id);
+    expectProblem(await book(t.app, await rival(), bookingRequest(P.orgId, start)), 409, 'SLOT_TAKEN');
+    // a released hold is not resumed: a new booking takes the time
+    await request(t.app).post(`/api/bookings/${booking.id}/release`).set(bearer(owner)).expect(200);
+    const fresh = await book(t.app, owner, bookingRequest(P.orgId, start));
+    expect(fresh.status).toBe(201);
+    expect(fresh.body.data.id).not.toBe(booking.id);
   });
 
   it('treats insufficient funds like any declined card', async () => {

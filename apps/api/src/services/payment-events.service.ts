@@ -10,7 +10,6 @@ import { PaymentRejected } from '../payments/errors';
 import { audit } from './audit.service';
 import {
   baseOf,
-  closeCheckout,
   freeTechnician,
   lockTechnicians,
   recordEvent,
@@ -163,15 +162,19 @@ async function checkoutExpired(ctx: BookingContext, bookingId: string, sessionId
   await transition(ctx, bookingId, 'released', 'system', 'The payment page expired', { set: { payment_status: 'cancelled' } });
 }
 
-/** A declined card: the slot is given back and the payment page closed, so it cannot be paid later. */
+/**
+ * A declined card: the hold and the payment page stay, so the owner can try another card until the
+ * hold lapses (the expire-holds job then closes the page). The decline is noted in the history and
+ * as the payment's status, which a later authorised payment replaces.
+ */
 async function paymentFailed(ctx: BookingContext, bookingId: string, intent: Obj): Promise<void> {
   const row = await findBookingRow(ctx.manager, bookingId, {}, true);
+  // paid meanwhile with another card (or given up): nothing to note on a booking that moved on
   if (row.status !== 'held') return;
-  // paid meanwhile with another card: the completed checkout's event moves the booking on
-  if (!(await closeCheckout(ctx, row))) return;
   const error = intent.last_payment_error as Obj | null | undefined;
   const why = str(error?.decline_code) ?? str(error?.code) ?? 'declined';
-  await transition(ctx, bookingId, 'released', 'system', `The card was declined (${why})`, { set: { payment_status: 'failed', payment_intent_id: str(intent.id) } });
+  await ctx.manager.query("UPDATE booking SET payment_status = 'failed', payment_intent_id = ? WHERE id = ? AND status = 'held'", [str(intent.id), bookingId]);
+  await recordEvent(ctx, row, 'held', 'held', 'system', `The card was declined (${why}); the time stays held for another card`);
 }
 
 async function chargeRefunded(ctx: BookingContext, bookingId: string, charge: Obj): Promise<void> {
