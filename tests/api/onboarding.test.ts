@@ -158,6 +158,9 @@ describe('the whole journey', () => {
     expect(await auditActions(orgId)).toEqual(expect.arrayContaining(['application.review', 'application.request-changes', 'document.upload', 'application.save-area', 'application.save-capabilities']));
     const decision = detail.body.data.history.find((h: { action: string }) => h.action === 'application.approve');
     expect(decision).toMatchObject({ actorUserId: nwa.userId, before: { status: 'submitted' }, after: { status: 'approved' } });
+    // the history names who acted, not only their id
+    const [who] = await t.dataSource.query('SELECT name FROM user_account WHERE id = ?', [nwa.userId]);
+    expect(decision.actorName).toBe(who.name);
   });
 });
 

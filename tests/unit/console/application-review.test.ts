@@ -4,7 +4,7 @@ import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { flushPromises, mount } from '@vue/test-utils';
 import { createPinia, setActivePinia } from 'pinia';
 import { createMemoryHistory } from 'vue-router';
-import type { OrganisationStatus } from '@emberline/domain';
+import type { AuditEntry, OrganisationStatus } from '@emberline/domain';
 import { refreshSession } from '@/api/auth';
 import { decide, getApplicationReview } from '@/api/onboarding';
 import { i18n } from '@/locales';
@@ -17,9 +17,9 @@ vi.mock('@/api/auth', () => ({ refreshSession: vi.fn(), signIn: vi.fn(), signOut
 vi.mock('@/api/onboarding', () => ({ getApplicationReview: vi.fn(), saveReview: vi.fn(), decide: vi.fn(), fetchDocumentBlob: vi.fn(), deleteDocument: vi.fn() }));
 vi.mock('@emberline/ui/area-map', () => ({ __esModule: true, default: { name: 'AreaMapStub', render: () => null } }));
 
-async function mountReview(status: OrganisationStatus) {
+async function mountReview(status: OrganisationStatus, history: AuditEntry[] = []) {
   vi.mocked(refreshSession).mockResolvedValue(session(me({ roles: ['network_admin'] })));
-  vi.mocked(getApplicationReview).mockResolvedValue({ application: application({ status, business, editable: false }), checklist: null, internalNotes: '', history: [] });
+  vi.mocked(getApplicationReview).mockResolvedValue({ application: application({ status, business, editable: false }), checklist: null, internalNotes: '', history });
   const router = createAppRouter(createMemoryHistory());
   await router.push(`/admin/applications/${ORG_A}`);
   await router.isReady();
@@ -48,6 +48,32 @@ describe('Application review', () => {
     expect(offered(await mountReview('approved'))).toEqual(['suspend']);
     document.body.innerHTML = '';
     expect(offered(await mountReview('suspended'))).toEqual(['reinstate']);
+  });
+
+  it('shows the history in words: who acted by name, the decision and the admin\'s message', async () => {
+    const entry = (id: string, action: string, createdAt: string, actor: { id: string | null; name: string | null }, after: unknown = null): AuditEntry => ({
+      id, actorUserId: actor.id, actorName: actor.name, action, entityType: 'organisation', entityId: ORG_A, organisationId: ORG_A, before: null, after, createdAt,
+    });
+    const admin = { id: '3c5b9a0e-1f2d-4c3b-8a7e-6d5c4b3a2f10', name: 'Vera Lindqvist' };
+    const wrapper = await mountReview('changes_requested', [
+      entry('1', 'application.submit', '2026-03-01T09:00:00.000Z', { id: '7a1e0c52-0b8d-4f6e-9c3a-2d4b6e8f0a12', name: 'Lukas Moser' }),
+      entry('2', 'application.request-changes', '2026-03-02T09:00:00.000Z', admin, { status: 'changes_requested', changeRequest: { message: 'Please upload the insurance certificate for mobile work.', fields: [] } }),
+      entry('3', 'organisation.suspend', '2026-03-03T09:00:00.000Z', { id: null, name: null }, { status: 'suspended', statusReason: 'Insurance expired' }),
+      entry('4', 'booking.frobnicate', '2026-03-04T09:00:00.000Z', { id: 'deadbeef-0000-4000-8000-000000000000', name: null }),
+    ]);
+    const items = wrapper.findAll('.history li').map((li) => li.text());
+    expect(items).toHaveLength(4);
+    expect(items[0]).toContain('Other change (booking.frobnicate)');
+    expect(items[0]).toContain('by a former user');
+    expect(items[1]).toContain('Suspended');
+    expect(items[1]).toContain('by the system');
+    expect(items[1]).toContain('Insurance expired');
+    expect(items[2]).toContain('Changes requested');
+    expect(items[2]).toContain('by Vera Lindqvist');
+    expect(items[2]).toContain('Please upload the insurance certificate for mobile work.');
+    expect(items[3]).toContain('Application submitted');
+    expect(items[3]).toContain('by Lukas Moser');
+    for (const text of items) expect(text).not.toMatch(/3c5b|application\.request-changes/);
   });
 
   it('offers no decision for a draft', async () => {

@@ -1,4 +1,5 @@
 // Network-admin views: the e-mail log and the audit log.
+import { In } from 'typeorm';
 import type { MailLogEntry } from '@emberline/domain';
 import { AuditLogEntity, MailOutboxEntity, UserAccountEntity } from '../entities';
 import { newId } from '../lib/secure-token';
@@ -34,9 +35,14 @@ export async function listAudit(ctx: ServiceContext, filter: { organisationId?: 
     order: { id: 'DESC' },
     take: filter.limit,
   });
+  // names, not ids: one look-up for every actor on the page
+  const actorIds = [...new Set(rows.map((r) => r.actorUserId).filter((id): id is string => !!id))];
+  const actors = actorIds.length ? await ctx.manager.getRepository(UserAccountEntity).find({ where: { id: In(actorIds) }, select: { id: true, name: true } }) : [];
+  const names = new Map(actors.map((u) => [u.id, u.name]));
   return rows.map((r) => ({
     id: String(r.id),
     actorUserId: r.actorUserId,
+    actorName: (r.actorUserId && names.get(r.actorUserId)) ?? null,
     action: r.action,
     entityType: r.entityType,
     entityId: r.entityId,

@@ -410,6 +410,26 @@ const en = {
     historyEmpty: 'No actions recorded yet.',
     historyBy: 'by {actor}',
     system: 'the system',
+    formerUser: 'a former user',
+    /** Audit actions in words, nested as their codes are (`application.approve`). */
+    actions: {
+      organisation: { create: 'Organisation created', suspend: 'Suspended', reinstate: 'Reinstated' },
+      application: {
+        'save-business': 'Business details saved',
+        'save-area': 'Service area saved',
+        'save-capabilities': 'Equipment saved',
+        submit: 'Application submitted',
+        'resubmit-insurance': 'New insurance sent for review',
+        review: 'Review checklist and notes saved',
+        approve: 'Approved',
+        'request-changes': 'Changes requested',
+        reject: 'Rejected',
+      },
+      document: { upload: 'Document uploaded', delete: 'Document removed' },
+      invitation: { create: 'Team member invited', accept: 'Invitation accepted', revoke: 'Invitation withdrawn' },
+      membership: { 'change-role': 'Team member’s role changed', remove: 'Team member removed' },
+      other: 'Other change ({action})',
+    },
     checklistNone: 'No checklist saved yet.',
   },
   capabilityAdmin: {

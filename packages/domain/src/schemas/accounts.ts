@@ -222,6 +222,8 @@ export type OrganisationSummary = z.infer<typeof OrganisationSummarySchema>;
 export const AuditEntrySchema = z.object({
   id: z.string(),
   actorUserId: z.string().nullable(),
+  /** The actor's name as it is now; null for the system or a deleted account. */
+  actorName: z.string().nullable(),
   action: z.string(),
   entityType: z.string(),
   entityId: z.string().nullable(),
