@@ -181,10 +181,10 @@ describe('working hours and exceptions', () => {
     expect(slots.map((s) => intlHour(s.start))).toEqual(['09:00', '10:00', '11:00']);
   });
 
-  it('a boundary in the spring-forward gap moves forward: 02:30–06:00 on 29 March 2026 in Berlin starts at 03:30 CEST (RFC 5545 §3.3.5, from memory)', () => {
+  it('a boundary in the spring-forward gap is clipped to the end of the gap: 02:30–06:00 on 29 March 2026 in Berlin starts at 03:00 CEST (more in slots-clock-gaps.test.ts)', () => {
     const h = hours({ weekly: { sunday: [{ start: '02:30', end: '06:00' }] } });
     const slots = computeSlots(query({ from: '2026-03-29T00:00:00+01:00', now: '2026-03-01T00:00:00Z', technicians: [technician({ hours: h })] })).technicians[0]!.slots;
-    expect(slots[0]!.localStart).toBe('2026-03-29T03:30+02:00');
+    expect(slots[0]!.localStart).toBe('2026-03-29T03:00+02:00');
     expect(slots.at(-1)!.localStart).toBe('2026-03-29T05:00+02:00');
   });
 

@@ -28,8 +28,13 @@ interface LocalDay {
 /** The local days searched in one zone, shared by the technicians working in it. */
 interface ZoneCalendar {
   clock: ZoneClock;
-  /** The searched days and the day after them, into which a late job may run. */
+  /**
+   * The searched days and the day after them, into which a late job may run; when the zone skipped
+   * that day, also the next day that happened (the job runs on into it).
+   */
   days: LocalDay[];
+  /** How many of `days` are searched. */
+  searched: number;
   /** First instant of the local day after the last searched day. */
   searchEnd: number;
   /** First instant after the booking horizon, per horizon in days (technicians share them). */
@@ -140,14 +145,16 @@ function calendarFor(zone: string, context: Context): ZoneCalendar {
   const clock = new ZoneClock(zone, context.fromMs - 4 * DAY_MS, context.fromMs + (context.days + 4) * DAY_MS);
   const firstMidnight = Math.floor(clock.toWallClock(context.fromMs) / DAY_MS) * DAY_MS;
   const days: LocalDay[] = [];
-  for (let i = 0; i <= context.days; i++) {
-    const wallMidnight = firstMidnight + i * DAY_MS;
+  const addDay = (wallMidnight: number) => {
     const date = new Date(wallMidnight);
     // getUTCDay counts from Sunday; WEEKDAYS from Monday
     days.push({ date: date.toISOString().slice(0, 10), weekday: WEEKDAYS[(date.getUTCDay() + 6) % 7]!, wallMidnight });
-  }
-  const after = days[days.length - 1]!;
-  const calendar: ZoneCalendar = { clock, days, searchEnd: clock.toInstant(after.wallMidnight), horizonEnds: new Map() };
+  };
+  for (let i = 0; i <= context.days; i++) addDay(firstMidnight + i * DAY_MS);
+  const searchEnd = clock.toInstant(days[context.days]!.wallMidnight);
+  // a skipped day (its midnight and the next are the same instant) lends no hours: the next one does
+  for (let next = days[context.days]!.wallMidnight + DAY_MS; clock.toInstant(next) === searchEnd; next += DAY_MS) addDay(next);
+  const calendar: ZoneCalendar = { clock, days, searched: context.days, searchEnd, horizonEnds: new Map() };
   context.calendars.set(zone, calendar);
   return calendar;
 }
@@ -209,7 +216,7 @@ const windowsCache = new WeakMap<WorkingHours, Map<string, { windows: Span[]; da
 const WINDOWS_PER_HOURS = 8;
 
 function cachedWorkingWindows(hours: WorkingHours, calendar: ZoneCalendar): { windows: Span[]; dayFirstStarts: number[] } {
-  const key = `${calendar.days[0]!.date}|${calendar.days.length}`;
+  const key = `${calendar.days[0]!.date}|${calendar.searched}`;
   let byDays = windowsCache.get(hours);
   if (!byDays) windowsCache.set(hours, (byDays = new Map()));
   let found = byDays.get(key);
@@ -259,7 +266,7 @@ function workingWindows(hours: WorkingHours, calendar: ZoneCalendar): { windows:
     const free = subtractSpans(mergeSpans(spans, true), away);
     if (free.length === 0) return;
     // the day after the search only lends its hours to jobs starting the evening before
-    if (index < calendar.days.length - 1) dayFirstStarts.push(free[0]!.start);
+    if (index < calendar.searched) dayFirstStarts.push(free[0]!.start);
     for (const span of free) windows.push(span);
   });
   // touching windows join, so a job may run from one interval into the next (and past midnight)

@@ -37,20 +37,23 @@ function offsetTable(zone: IANAZone, from: number, to: number): YearTable {
       t = next;
       continue;
     }
-    // the offset changed in (t, next]: find the first second of the new offset
-    let lo = t;
-    let hi = next;
-    while (hi - lo > SECOND_MS) {
-      const mid = Math.max(lo + SECOND_MS, Math.floor((lo + hi) / 2 / SECOND_MS) * SECOND_MS);
-      if (luxonOffset(zone, mid) === offset) lo = mid;
-      else hi = mid;
-    }
-    t = hi;
-    offset = luxonOffset(zone, hi);
-    starts.push(hi);
+    t = firstSecondOfChange((instant) => luxonOffset(zone, instant), t, next);
+    offset = luxonOffset(zone, t);
+    starts.push(t);
     offsets.push(offset);
   }
   return { starts, offsets };
+}
+
+/** The first second in (lo, hi] whose offset differs from lo's, lo and hi being whole seconds with different offsets (bisection). */
+function firstSecondOfChange(offsetOf: (instant: number) => number, lo: number, hi: number): number {
+  const offset = offsetOf(lo);
+  while (hi - lo > SECOND_MS) {
+    const mid = Math.max(lo + SECOND_MS, Math.floor((lo + hi) / 2 / SECOND_MS) * SECOND_MS);
+    if (offsetOf(mid) === offset) lo = mid;
+    else hi = mid;
+  }
+  return hi;
 }
 
 function yearTable(zone: IANAZone, year: number): YearTable {
@@ -124,9 +127,12 @@ export class ZoneClock {
 
   /**
    * The instant of a wall-clock time. A time that occurs twice (clocks go back) means its first
-   * occurrence; a time that does not exist (clocks go forward) is read with the offset before
-   * the gap, which lands as far after the gap as it was into it — as RFC 5545 §3.3.5 reads
-   * local times (from memory).
+   * occurrence. A time that does not exist (clocks go forward, or a whole skipped day) means the
+   * instant of the jump: the first real instant after the gap, which is also where the time
+   * before the gap ends. So a span of wall-clock times keeps exactly the real instants inside it,
+   * rather than being shifted by the gap as RFC 5545 §3.3.5 reads such times (with the offset
+   * before the gap), which would put working time outside the hours and move a skipped day's
+   * hours onto the next day.
    */
   toInstant(wallClock: number): number {
     // any real offset is within ±1 day, so these two offsets bracket the one sought
@@ -140,7 +146,10 @@ export class ZoneClock {
     }
     const second = wallClock - after;
     if (this.offsetAt(second) === after) return second;
-    return first; // in the gap
+    // in the gap: the offset changes in (second, first]
+    const change = this.nextChangeAfter(second);
+    if (second >= this.spanStart && change <= first) return change;
+    return firstSecondOfChange((instant) => this.offsetAt(instant), second, first);
   }
 
   private luxonOffset(instant: number): number {
