@@ -13,6 +13,7 @@ import type { SignedIn } from '../setup/accounts';
 import { bearer } from '../setup/onboarding';
 import { startPaymentsFake, TEST_CARD, TEST_PAYMENTS_WEBHOOK_SECRET, type TestPaymentsFake } from '../setup/payments';
 import {
+  appointmentStartsNow,
   book,
   bookablePartner,
   bookingRequest,
@@ -113,6 +114,8 @@ describe('paying and the partner\'s decisions', () => {
     expect(download.headers['content-type']).toMatch(/^text\/calendar/);
     expect(icsLines(download.text)).toContain(`UID:${calendarUid(booking.id)}`);
 
+    // the job's day has come: it may be started from two hours before
+    await appointmentStartsNow(t.dataSource, booking.id);
     await decide(booking.id, { action: 'start' }, P.technician).expect(200);
     b = (await decide(booking.id, { action: 'complete' }, P.technician).expect(200)).body.data;
     expect(b).toMatchObject({ status: 'completed', payment: { status: 'captured', capturedMinor: 7200 } });
@@ -207,6 +210,7 @@ describe('paying and the partner\'s decisions', () => {
 
   it('never takes the stock below zero on completion', async () => {
     const { booking } = await paid({ accept: true });
+    await appointmentStartsNow(t.dataSource, booking.id);
     await decide(booking.id, { action: 'start' }).expect(200);
     await t.dataSource.query('UPDATE part SET stock = 0 WHERE id = ?', [P.partId]);
     await decide(booking.id, { action: 'complete' }).expect(200);

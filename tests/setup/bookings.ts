@@ -90,6 +90,9 @@ export function deliverWebhooksTo(fake: TestPaymentsFake, app: Express): void {
 }
 
 export const bookingRow = async (ds: DataSource, id: string) => (await ds.query('SELECT * FROM booking WHERE id = ?', [id]))[0];
+/** Moves a booking's appointment to begin now, its length kept: its day has come and the job may start. */
+export const appointmentStartsNow = (ds: DataSource, id: string) =>
+  ds.query('UPDATE booking SET end_at = UTC_TIMESTAMP(3) + INTERVAL TIMESTAMPDIFF(MICROSECOND, start_at, end_at) MICROSECOND, start_at = UTC_TIMESTAMP(3) WHERE id = ?', [id]);
 export const bookingCount = async (ds: DataSource, where = '1 = 1', params: unknown[] = []) => Number((await ds.query(`SELECT COUNT(*) AS n FROM booking WHERE ${where}`, params))[0].n);
 
 /** Pays the booking's checkout with a test card and waits until the webhooks are handled. */

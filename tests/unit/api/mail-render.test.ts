@@ -30,6 +30,7 @@ const samples: { [T in MailTemplate]: MailTemplateData[T] } = {
   'booking-cancelled': { name: 'Anna', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', start: when, fee: money(2000), refund: money(31_432), link },
   'booking-declined': { name: 'Anna', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', partnerName: 'Nordlicht Mobile Heating', start: when, reason: 'The technician is ill', amount: money(33_432), link },
   'booking-expired': { name: 'Anna', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', partnerName: 'Nordlicht Mobile Heating', start: when, amount: money(33_432), link },
+  'booking-completed': { name: 'Anna', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', partnerName: 'Nordlicht Mobile Heating', start: when, completedAt: when, amount: money(33_432), link },
   'partner-booking-new': { name: 'Jonas', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', start: when, customerName: 'Anna Berg', place: 'Museumstraße 5, 6020 Innsbruck', link },
   'partner-booking-cancelled': { name: 'Jonas', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', start: when, customerName: 'Anna Berg', fee: money(0), link },
   'partner-booking-rescheduled': { name: 'Jonas', reference: 'EMB-K7Q2MX', serviceName: 'Parking heater conversion', start: when, previousStart: when, customerName: 'Anna Berg', link },

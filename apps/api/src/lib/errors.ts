@@ -4,6 +4,8 @@ import type { FieldError } from '@emberline/domain';
 export class HttpError extends Error {
   /** Seconds the client should wait before trying again; sent as Retry-After. */
   retryAfterSeconds?: number;
+  /** Extension members of the problem details (RFC 9457, 3.2), e.g. `earliestStart`. */
+  extensions?: Record<string, string>;
 
   constructor(
     readonly code: string,

@@ -37,6 +37,8 @@ export interface MailTemplateData {
   'booking-declined': { name: string; reference: string; serviceName: string; partnerName: string; start: MailWhen; reason: string; amount: MailMoney; link: string };
   /** To the owner: nobody confirmed before the start; the hold is released. */
   'booking-expired': { name: string; reference: string; serviceName: string; partnerName: string; start: MailWhen; amount: MailMoney; link: string };
+  /** To the owner: the job is done and its payment taken; the receipt. */
+  'booking-completed': { name: string; reference: string; serviceName: string; partnerName: string; start: MailWhen; completedAt: MailWhen; amount: MailMoney; link: string };
   /** To the partner admins and the assigned technician. */
   'partner-booking-new': { name: string; reference: string; serviceName: string; start: MailWhen; customerName: string; place: string; link: string };
   'partner-booking-cancelled': { name: string; reference: string; serviceName: string; start: MailWhen; customerName: string; fee: MailMoney; link: string };
@@ -90,6 +92,7 @@ export const ACTION_LINK: { readonly [T in MailTemplate]: (keyof MailTemplateDat
   'booking-cancelled': 'link',
   'booking-declined': 'link',
   'booking-expired': 'link',
+  'booking-completed': 'link',
   'partner-booking-new': 'link',
   'partner-booking-cancelled': 'link',
   'partner-booking-rescheduled': 'link',
@@ -103,7 +106,7 @@ const DURATION_UNITS: Record<string, 'minute' | 'day'> = { minutes: 'minute', da
 const DATE_FIELDS = new Set(['expiresOn']);
 /** Money ({ minor, currency }) and instants ({ at, timeZone }) in the data, written with Intl in the mail language. */
 const MONEY_FIELDS = new Set(['amount', 'fee', 'refund']);
-const WHEN_FIELDS = new Set(['start', 'previousStart']);
+const WHEN_FIELDS = new Set(['start', 'previousStart', 'completedAt']);
 
 const isMoney = (v: unknown): v is MailMoney => typeof v === 'object' && v !== null && Number.isInteger((v as MailMoney).minor) && typeof (v as MailMoney).currency === 'string';
 const isWhen = (v: unknown): v is MailWhen => typeof v === 'object' && v !== null && typeof (v as MailWhen).at === 'string' && typeof (v as MailWhen).timeZone === 'string';

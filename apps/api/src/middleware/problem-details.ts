@@ -59,6 +59,7 @@ export const problemDetails: ErrorRequestHandler = (err, req, res, _next) => {
   if (problem.status >= 500) req.log?.error({ err }, 'request failed');
   else req.log?.info({ code: problem.code, status: problem.status }, 'request refused');
   const body: ProblemDetails = {
+    ...problem.extensions,
     type: `urn:emberline:problem:${problem.code.toLowerCase().replace(/_/g, '-')}`,
     title: problem.title,
     status: problem.status,

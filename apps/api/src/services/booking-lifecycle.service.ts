@@ -4,6 +4,7 @@
 import type { EntityManager } from 'typeorm';
 import {
   canTransition,
+  checkJobStart,
   computeSlots,
   WorkingHoursSchema,
   type BookingActor,
@@ -23,11 +24,15 @@ import { audit } from './audit.service';
 import { bookingCalendar } from './booking-calendar';
 import { customerOf, findBookingRow, kitOf, minor, placeOf, type BookingRow, type PaymentStatus } from './booking-records';
 import { json } from '../lib/json-column';
+import { jobStartWindowMinutes } from './network-settings';
 import { occupiedTimes, slotWindow } from './occupied-times';
 import { consoleLinks, directoryLinks } from './recipients';
 
 export const BookingStateConflict = createError('BOOKING_STATE', 409, 'The booking cannot change like this');
 export const SlotTaken = createError('SLOT_TAKEN', 409, 'This time is not free');
+const StartTooEarly = createError('START_TOO_EARLY', 409, 'The job cannot be started yet');
+const StartDayOver = createError('START_DAY_OVER', 409, 'The day of this job is over');
+const NotStarted = createError('NOT_STARTED', 409, 'The job has not been started');
 
 /** What every booking change needs besides the transaction and the actor. */
 export interface BookingContext extends ServiceContext {
@@ -56,6 +61,31 @@ export function assertTransition(row: BookingRow, to: BookingStatus, by: Booking
   if (!canTransition(row.status, to, by)) {
     throw BookingStateConflict(`Booking ${row.reference} is ${STATUS_WORDS[row.status]}; it cannot become ${STATUS_WORDS[to]} now.`);
   }
+}
+
+const localTime = (at: Date, timeZone: string) =>
+  new Intl.DateTimeFormat('en-GB', { weekday: 'short', day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit', timeZone, timeZoneName: 'short' }).format(at);
+
+/**
+ * 409 unless the partner may start the job now: a confirmed booking, inside the network's start
+ * window on the appointment's local day (the domain's checkJobStart). Answers the earliest start.
+ */
+export async function assertStartAllowed(ctx: BookingContext, row: BookingRow): Promise<void> {
+  assertTransition(row, 'in_progress', 'partner');
+  const check = checkJobStart(new Date(row.start_at), row.time_zone, await jobStartWindowMinutes(ctx.manager), ctx.now);
+  if (check.allowed) return;
+  if (check.reason === 'day-over') {
+    throw StartDayOver(`Booking ${row.reference} was due on a day that has ended; record a no-show or cancel it instead.`);
+  }
+  const err = StartTooEarly(`Booking ${row.reference} can be started from ${localTime(check.from, row.time_zone)}, not before.`);
+  err.extensions = { earliestStart: check.from.toISOString() };
+  throw err;
+}
+
+/** 409 unless the job was started: only a job under way can be marked as done (and its money taken). */
+export function assertCompletable(row: BookingRow): void {
+  if (row.status === 'confirmed') throw NotStarted(`Booking ${row.reference} has not been started; start the job first, then mark it as done when it is finished.`);
+  assertTransition(row, 'completed', 'partner');
 }
 
 /** Columns a transition may set along with the status. */
@@ -189,7 +219,7 @@ export function calendarText(manager: EntityManager, r: BookingRow, publicUrl: s
   });
 }
 
-type OwnerTemplate = 'booking-requested' | 'booking-confirmed' | 'booking-reminder' | 'booking-rescheduled' | 'booking-cancelled' | 'booking-declined' | 'booking-expired';
+type OwnerTemplate = 'booking-requested' | 'booking-confirmed' | 'booking-reminder' | 'booking-rescheduled' | 'booking-cancelled' | 'booking-declined' | 'booking-expired' | 'booking-completed';
 
 async function mailOwner<T extends OwnerTemplate>(
   ctx: { manager: EntityManager; publicUrl: string },
@@ -236,6 +266,12 @@ async function notify(ctx: BookingContext, r: BookingRow, to: BookingStatus, not
     case 'cancelled_by_partner':
       if (owner) {
         await mailOwner(ctx, r, 'booking-declined', (p) => ({ ...common(r, p.name), partnerName: r.partner_name, start: whenOf(r), reason: note ?? '–', amount: money(r, authorised), link }));
+      }
+      return;
+    case 'completed':
+      // the receipt: what was taken, when, by whom
+      if (owner) {
+        await mailOwner(ctx, r, 'booking-completed', (p) => ({ ...common(r, p.name), partnerName: r.partner_name, start: whenOf(r), completedAt: { at: ctx.now.toISOString(), timeZone: r.time_zone }, amount: money(r, minor(r.captured_minor)), link }));
       }
       return;
     case 'expired':

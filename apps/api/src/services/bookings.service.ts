@@ -19,6 +19,8 @@ import { createError, NotFound, ValidationFailed } from '../lib/errors';
 import { newId } from '../lib/secure-token';
 import { audit } from './audit.service';
 import {
+  assertCompletable,
+  assertStartAllowed,
   assertTransition,
   baseOf,
   BookingStateConflict,
@@ -463,10 +465,11 @@ export async function decide(ctx: BookingContext, id: string, d: BookingDecision
       after = await transition(ctx, id, 'declined', 'partner', d.reason, { set: await releaseHold(ctx, row) });
       break;
     case 'start':
+      await assertStartAllowed(ctx, row);
       after = await transition(ctx, id, 'in_progress', 'partner', null);
       break;
     case 'complete': {
-      assertTransition(row, 'completed', 'partner');
+      assertCompletable(row);
       const set = await captureHeld(ctx, row, minor(row.authorised_minor), 'capture');
       await takeKitFromStock(ctx.manager, row);
       after = await transition(ctx, id, 'completed', 'partner', null, { set });

@@ -1,7 +1,8 @@
-// The network's settings the quote needs: the platform commission and the processing-fee
-// estimate, kept as rows of network_setting (written by the bookings migration).
+// The network's settings: the platform commission and the processing-fee estimate the quote
+// needs, and the job start window; kept as rows of network_setting (written by migrations).
 import type { EntityManager } from 'typeorm';
 import { z } from 'zod';
+import { DEFAULT_JOB_START_WINDOW_MINUTES } from '@emberline/domain';
 import { json } from '../lib/json-column';
 
 const SettingsSchema = z.object({
@@ -21,4 +22,12 @@ export async function quoteSettings(manager: EntityManager): Promise<QuoteSettin
   );
   const settings = SettingsSchema.parse(Object.fromEntries(rows.map((r) => [r.setting_key, json(r.value)])));
   return { commissionBp: settings['platform-commission'].bp, processingFee: settings['processing-fee-estimate'] };
+}
+
+const JobStartWindowSchema = z.object({ minutes: z.number().int().min(0).max(24 * 60) });
+
+/** Minutes before its appointment a job may be started (the domain's default when the row is missing). */
+export async function jobStartWindowMinutes(manager: EntityManager): Promise<number> {
+  const [row]: { value: unknown }[] = await manager.query("SELECT value FROM network_setting WHERE setting_key = 'job-start-window'");
+  return row ? JobStartWindowSchema.parse(json(row.value)).minutes : DEFAULT_JOB_START_WINDOW_MINUTES;
 }

@@ -16,6 +16,7 @@ export const ProblemDetailsSchema = z.object({
   code: z.string().describe('Stable machine-readable code, e.g. VALIDATION_FAILED'),
   errors: z.array(FieldErrorSchema).optional(),
   requestId: z.string().optional(),
+  earliestStart: z.string().optional().describe('START_TOO_EARLY: the first instant the job may be started'),
 });
 export type ProblemDetails = z.infer<typeof ProblemDetailsSchema>;
 

@@ -228,6 +228,17 @@ const de: MailMessages = {
       ],
       action: 'Anderen Termin finden',
     },
+    'booking-completed': {
+      subject: 'Auftrag erledigt: {serviceName} ({reference}), Ihr Beleg',
+      heading: 'Ihr Auftrag ist erledigt',
+      greeting: 'Hallo {name},',
+      paragraphs: [
+        '{partnerName} hat {serviceName} erledigt (Buchung {reference}, gebucht für {start}).',
+        'Beleg: {amount} wurden am {completedAt} von Ihrer Karte abgebucht, für die Buchung {reference} bei {partnerName}.',
+        'Wenn an der Arbeit etwas nicht stimmt: Auf der Buchungsseite finden Sie, wie Sie {partnerName} erreichen und ein Problem melden.',
+      ],
+      action: 'Buchung ansehen',
+    },
     'partner-booking-new': {
       subject: 'Neue Buchung {reference}: {serviceName} am {start}',
       heading: 'Eine neue Buchung',

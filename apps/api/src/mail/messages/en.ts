@@ -44,6 +44,7 @@ export interface MailMessages {
     'booking-cancelled': TemplateMessages;
     'booking-declined': TemplateMessages;
     'booking-expired': TemplateMessages;
+    'booking-completed': TemplateMessages;
     'partner-booking-new': TemplateMessages;
     'partner-booking-cancelled': TemplateMessages;
     'partner-booking-rescheduled': TemplateMessages;
@@ -276,6 +277,17 @@ const en: MailMessages = {
         'The reservation of {amount} on your card has been released; nothing was charged.',
       ],
       action: 'Find another time',
+    },
+    'booking-completed': {
+      subject: 'Job done: {serviceName} ({reference}), your receipt',
+      heading: 'Your job is done',
+      greeting: 'Hello {name},',
+      paragraphs: [
+        '{partnerName} has finished {serviceName} (booking {reference}, booked for {start}).',
+        'Receipt: {amount} was taken from your card on {completedAt}, for booking {reference} with {partnerName}.',
+        'If something is not right with the work, your booking page shows how to reach {partnerName} and how to report a problem.',
+      ],
+      action: 'See your booking',
     },
     'partner-booking-new': {
       subject: 'New booking {reference}: {serviceName} on {start}',
