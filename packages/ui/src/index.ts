@@ -21,3 +21,5 @@ export { default as EmailLinkForm } from './components/account/email-link-form.v
 export { default as ResetPasswordForm } from './components/account/reset-password-form.vue';
 export { default as PasswordField } from './components/account/password-field.vue';
 export { default as NativeSelect } from './components/native-select.vue';
+export { default as BookingStatusTag } from './components/booking-status-tag.vue';
+export * from './booking-status';
