@@ -144,6 +144,25 @@ describe('offers', () => {
   });
 });
 
+describe('a price of 0', () => {
+  it('is refused unless the partner says the service is free, and free means 0', async () => {
+    const zero = await post(B, '/offers', { ...OFFER, priceMinor: 0 }).expect(400);
+    expect(zero.body.errors).toEqual([expect.objectContaining({ path: 'priceMinor', message: 'Enter a price above 0, or tick that the service is free' })]);
+    expect(paths(await post(B, '/offers', { ...OFFER, free: true }).expect(400))).toEqual(['free']);
+    expect(await count('offer', B.orgId)).toBe(0);
+    const offer = (await post(B, '/offers', { ...OFFER, priceMinor: 0, free: true }).expect(201)).body.data;
+    expect(offer.priceMinor).toBe(0);
+    const patch = (body: object) => request(t.app).patch(`/api/orgs/${B.orgId}/offers/${offer.id}`).set(bearer(B.admin)).send(body);
+    // a change that leaves the price alone need not say it again
+    await patch({ durationMinutes: 60 }).expect(200);
+    await patch({ priceMinor: 2500 }).expect(200);
+    expect(paths(await patch({ priceMinor: 0 }).expect(400))).toEqual(['priceMinor']);
+    expect(paths(await patch({ free: true }).expect(400))).toEqual(['free']);
+    expect((await patch({ priceMinor: 0, free: true }).expect(200)).body.data.priceMinor).toBe(0);
+    await request(t.app).delete(`/api/orgs/${B.orgId}/offers/${offer.id}`).set(bearer(B.admin)).expect(200);
+  });
+});
+
 describe('travel policy', () => {
   it('is unset at first, then saved; bad values are field errors', async () => {
     const first = await request(t.app).get(`/api/orgs/${A.orgId}/travel-policy`).set(bearer(A.technician!)).expect(200);

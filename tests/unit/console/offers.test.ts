@@ -160,6 +160,41 @@ describe('Services and prices', { timeout: 30_000 }, () => {
     expect(document.body.querySelector('[data-testid="offer-form"]')).not.toBeNull();
   });
 
+  it('refuses a price it cannot read with a field error, keeps what was typed, and saves 0 only when ticked free', async () => {
+    vi.mocked(createOffer).mockResolvedValue({ ...kitOffer, id: OFFER_ID, serviceTypeCode: 'handset-pairing', serviceTypeName: 'Handset pairing and range check', priceMinor: 0 });
+    const wrapper = await mountPage();
+    await openCreate(wrapper);
+    await $('[data-code="handset-pairing"] input').setValue(true);
+    const priceHelp = () => $<HTMLInputElement>('#offer_price').element.closest('.ant-form-item')!.textContent;
+    const trySave = async (typed: string) => {
+      await typeNumber('#offer_price', typed);
+      // what was typed stays as typed: no silent 0.00 or 100000.00
+      expect($<HTMLInputElement>('#offer_price').element.value).toBe(typed);
+      await $('[data-testid="offer-form"]').trigger('submit');
+      await flushPromises();
+      expect(createOffer).not.toHaveBeenCalled();
+    };
+    await trySave('-5');
+    expect(priceHelp()).toContain('The price cannot be negative');
+    await trySave('abc');
+    expect(priceHelp()).toContain('Enter the price as a number, e.g. 180.00');
+    await trySave('99999999');
+    expect(priceHelp()).toContain('The price can be at most €100,000.00');
+    await trySave('12.345');
+    expect(priceHelp()).toContain('Use at most 2 decimal places');
+    await typeNumber('#offer_price', '0');
+    expect($<HTMLInputElement>('#offer_price').element.value).toBe('0.00');
+    await $('[data-testid="offer-form"]').trigger('submit');
+    await flushPromises();
+    expect(createOffer).not.toHaveBeenCalled();
+    expect(priceHelp()).toContain('Enter a price above 0, or tick that the service is free');
+    // the partner says the service is free: now 0 is meant
+    await $('.offer-form__free input').setValue(true);
+    await $('[data-testid="offer-form"]').trigger('submit');
+    await flushPromises();
+    expect(createOffer).toHaveBeenCalledWith(ORG_A, expect.objectContaining({ priceMinor: 0, free: true }));
+  });
+
   it('asks for the price in words a person typing euros understands', async () => {
     const wrapper = await mountPage();
     await openCreate(wrapper);

@@ -641,6 +641,14 @@ const en = {
       price: 'Net price ({currency})',
       priceHint: 'In major units before VAT, e.g. 180.00.',
       enterPrice: 'Enter the net price, e.g. 180.00',
+      priceProblems: {
+        notNumber: 'Enter the price as a number, e.g. 180.00',
+        negative: 'The price cannot be negative',
+        tooPrecise: 'Use at most {digits} decimal places',
+        tooLarge: 'The price can be at most {max}',
+      },
+      priceZero: 'Enter a price above 0, or tick that the service is free',
+      free: 'This service is free (price 0)',
       currency: 'Currency',
       currencyHint: 'The parts in the kit must be priced in the same currency.',
       duration: 'Duration',
@@ -1021,6 +1029,10 @@ const en = {
       none: 'Nothing to do here: this booking is “{status}”.',
       notYours: 'Only a partner admin or {name}, who does this job, can change this booking.',
       reasonHint: 'The owner reads this. 3 to 500 characters.',
+      startBlocked: {
+        early: 'You can start this job from {time}, on the day of the appointment.',
+        over: 'The day of this job is over, so it can no longer be started. Record that the owner was not there, or cancel it.',
+      },
       lead: {
         requested: 'The owner has paid a hold and waits for your answer. Accept to confirm the time, or decline and say why.',
         confirmed: 'The time is agreed. Start the job when you begin; move it or cancel it if you must.',

@@ -55,7 +55,18 @@ const offerFields = {
   partsKit: z.array(PartsKitLineSchema).max(50, 'Use at most 50 lines in a parts kit'),
   deposit: DepositSchema,
   cancellation: CancellationSchema,
+  /** Says a price of 0 is meant: nothing is saved at 0 without it. */
+  free: z.boolean({ error: 'Say true or false' }).optional(),
 };
+
+export const FREE_PRICE_NEEDS_TICK = 'Enter a price above 0, or tick that the service is free';
+export const FREE_NEEDS_ZERO_PRICE = 'A free service has a price of 0';
+
+/** A 0 price is a typing slip unless the partner says the service is free (and free means 0). */
+function freeMeansZero(v: { priceMinor?: number; free?: boolean }, ctx: z.RefinementCtx): void {
+  if (v.priceMinor === 0 && v.free !== true) ctx.addIssue({ code: 'custom', path: ['priceMinor'], message: FREE_PRICE_NEEDS_TICK });
+  if (v.free === true && v.priceMinor !== 0) ctx.addIssue({ code: 'custom', path: ['free'], message: FREE_NEEDS_ZERO_PRICE });
+}
 
 function uniqueLists(v: { technicianUserIds?: string[]; partsKit?: { partId: string }[] }, ctx: z.RefinementCtx): void {
   const seen = new Set<string>();
@@ -72,7 +83,8 @@ function uniqueLists(v: { technicianUserIds?: string[]; partsKit?: { partId: str
 
 export const OfferInputSchema = z
   .object({ ...offerFields, technicianUserIds: offerFields.technicianUserIds.default([]), partsKit: offerFields.partsKit.default([]) })
-  .superRefine(uniqueLists);
+  .superRefine(uniqueLists)
+  .superRefine(freeMeansZero);
 export type OfferInput = z.output<typeof OfferInputSchema>;
 
 /** A change to an offer; the service type of an offer is fixed. */
@@ -85,8 +97,13 @@ export const OfferPatchSchema = z
     partsKit: offerFields.partsKit.optional(),
     deposit: offerFields.deposit.optional(),
     cancellation: offerFields.cancellation.optional(),
+    free: offerFields.free,
   })
-  .superRefine(uniqueLists);
+  .superRefine(uniqueLists)
+  .superRefine((v, ctx) => {
+    // a change that leaves the price alone need not repeat whether the service is free
+    if (v.priceMinor !== undefined || v.free !== undefined) freeMeansZero(v, ctx);
+  });
 export type OfferPatch = z.output<typeof OfferPatchSchema>;
 
 export const OfferSchema = z.object({
