@@ -111,7 +111,7 @@ export const EnvSchema = z.object({
   MAIL_CAPTURE_URL: z.url({ protocol: /^https?$/ }).optional(),
   /** Runs the scheduled jobs (outbox sender) in this process; the jobs lock, so several instances may. */
   RUN_SCHEDULER: flag(true),
-  MAIL_INTERVAL_SECONDS: z.coerce.number().int().min(1).max(3600).default(5),
+  MAIL_INTERVAL_SECONDS: z.coerce.number().int().min(1).max(3600).default(60),
   /** How often approved partners' insurance expiry is checked (reminders, suspensions). */
   INSURANCE_CHECK_INTERVAL_HOURS: z.coerce.number().min(0.01).max(24 * 7).default(24),
   /** Where uploaded documents are kept: `local` disk today; S3-compatible storage later. */

@@ -3,6 +3,7 @@ import 'reflect-metadata';
 import { DataSource } from 'typeorm';
 import type { Config } from '../config';
 import { entities } from '../entities';
+import { MailQueuedSubscriber } from '../mail/mail-queued';
 import { migrations } from './migrations';
 import { SnakeNamingStrategy } from './naming-strategy';
 
@@ -19,6 +20,8 @@ export function createDataSource(config: DbConfig): DataSource {
     charset: 'utf8mb4_unicode_ci',
     timezone: 'Z',
     entities,
+    // queued mail wakes the sender when its transaction commits
+    subscribers: [MailQueuedSubscriber],
     migrations,
     migrationsTableName: 'migrations',
     migrationsRun: false,

@@ -1,20 +1,8 @@
-// Bree job (worker thread): queues the reminders of bookings starting within a day, then signals done.
-import { parentPort } from 'node:worker_threads';
-import { loadConfig } from '../config';
-import { createDataSource } from '../db/data-source';
-import { createLogger } from '../lib/logger';
+// Scheduled job: queues the reminders of bookings starting within a day.
 import { runBookingReminders } from '../services/booking-jobs.service';
+import type { JobContext } from './scheduler';
 
-const config = loadConfig();
-const logger = createLogger(config.LOG_LEVEL).child({ job: 'booking-reminders' });
-const dataSource = createDataSource({ ...config, DB_POOL_SIZE: 2 });
-
-try {
-  await dataSource.initialize();
+export async function bookingReminders({ dataSource, config, logger }: JobContext): Promise<void> {
   const result = await runBookingReminders({ dataSource, publicUrl: config.publicUrl, logger });
   if (result.sent) logger.info(result, 'booking reminders queued');
-} finally {
-  if (dataSource.isInitialized) await dataSource.destroy();
 }
-
-if (parentPort) parentPort.postMessage('done');

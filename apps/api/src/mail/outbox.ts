@@ -6,6 +6,7 @@ import { MailOutboxEntity, type MailAttachment, type MailTemplateValues } from '
 import type { Logger } from '../lib/logger';
 import { renderMail, resolveMailLocale, type MailTemplate, type MailTemplateData, type RenderedMail } from './render';
 import { redactSecrets } from '../lib/redact';
+import { mailQueued } from './mail-queued';
 import { mailSecretKeyOf, MailSecretError, openSecretData, sealSecretData, splitSecretData } from './secret-data';
 
 /** Named MariaDB lock: with several API instances only the one holding it sends. */
@@ -82,6 +83,7 @@ export async function enqueueMail<T extends MailTemplate>(manager: EntityManager
     createdAt: now,
   });
   await manager.insert(MailOutboxEntity, row);
+  mailQueued(manager);
   return row;
 }
 
