@@ -1,7 +1,7 @@
 // Password hashes: scrypt against RFC 7914's published vectors, the PHC string, bcrypt hashes from before.
 import bcrypt from 'bcryptjs';
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_PASSWORD_HASH_COST, hashPassword, needsRehash, scryptKey, verifyPassword } from '../../../apps/api/src/lib/password-hash';
+import { createGate, DEFAULT_PASSWORD_HASH_COST, hashPassword, needsRehash, scryptKey, verifyPassword } from '../../../apps/api/src/lib/password-hash';
 
 const hex = (spaced: string) => Buffer.from(spaced.replace(/\s+/g, ''), 'hex');
 
@@ -64,5 +64,26 @@ describe('needsRehash', () => {
     expect(needsRehash(await hashPassword('x-password', 4), 4)).toBe(false);
     expect(needsRehash(await hashPassword('x-password', 4), 5)).toBe(true);
     expect(needsRehash('not a hash', 4)).toBe(true);
+  });
+});
+
+describe('createGate', () => {
+  it('runs at most `slots` tasks at once, in order, and frees a slot when a task fails', async () => {
+    const gate = createGate(2);
+    let inFlight = 0;
+    let most = 0;
+    const started: number[] = [];
+    const task = (i: number) => gate(async () => {
+      started.push(i);
+      most = Math.max(most, ++inFlight);
+      await new Promise((r) => setTimeout(r, 5));
+      inFlight--;
+      if (i === 1) throw new Error('boom');
+      return i;
+    });
+    const results = await Promise.allSettled([0, 1, 2, 3, 4, 5].map(task));
+    expect(most).toBe(2);
+    expect(started).toEqual([0, 1, 2, 3, 4, 5]);
+    expect(results.map((r) => r.status)).toEqual(['fulfilled', 'rejected', 'fulfilled', 'fulfilled', 'fulfilled', 'fulfilled']);
   });
 });

@@ -5,6 +5,7 @@
 // unpadded base64), so the cost can rise later and old hashes still verify. Hashes from before
 // (bcrypt, `$2a$`/`$2b$`) still verify, and `needsRehash` says to replace them.
 import { randomBytes, scrypt, timingSafeEqual, type ScryptOptions } from 'node:crypto';
+import { availableParallelism } from 'node:os';
 import bcrypt from 'bcryptjs';
 
 /** log2 of scrypt's N: OWASP's minimum, the default outside tests. */
@@ -19,9 +20,33 @@ const MAX_COST = 20;
 /** Whatever `ln` says, scrypt needs 128·N·r bytes; Node refuses more than 32 MiB unless told (N = 2^17 needs 128 MiB). */
 const maxmemFor = (N: number, r: number, p: number) => 128 * r * (N + p + 2);
 
+/**
+ * At most `slots` tasks at once, the rest wait in order. Hashes are given one core less than the
+ * machine has (at least one): a burst of sign-ins then queues instead of taking every core, so
+ * searches and the rest of the API stay responsive, and memory stays at slots × 128 MiB.
+ */
+export function createGate(slots: number) {
+  let running = 0;
+  const waiting: (() => void)[] = [];
+  return async function run<T>(task: () => Promise<T>): Promise<T> {
+    // a finished task hands its slot straight to the next waiting one, so no newcomer can jump in
+    if (running >= slots) await new Promise<void>((resolve) => waiting.push(resolve));
+    else running++;
+    try {
+      return await task();
+    } finally {
+      const next = waiting.shift();
+      if (next) next();
+      else running--;
+    }
+  };
+}
+
+const hashGate = createGate(Math.max(1, availableParallelism() - 1));
+
 export function scryptKey(password: string | Buffer, salt: Buffer, keyBytes: number, o: { N: number; r: number; p: number }): Promise<Buffer> {
   const options: ScryptOptions = { N: o.N, r: o.r, p: o.p, maxmem: maxmemFor(o.N, o.r, o.p) };
-  return new Promise((resolve, reject) => scrypt(password, salt, keyBytes, options, (error, key) => (error ? reject(error) : resolve(key))));
+  return hashGate(() => new Promise((resolve, reject) => scrypt(password, salt, keyBytes, options, (error, key) => (error ? reject(error) : resolve(key)))));
 }
 
 const b64 = (bytes: Buffer) => bytes.toString('base64').replace(/=+$/, '');
