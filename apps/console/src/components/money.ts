@@ -1,6 +1,6 @@
 // Amounts typed in major units (180.50) and stored as integer minor units (18050), converted by
 // the domain's money helper: ISO 4217 minor units, exact decimals, refusals rather than rounding.
-import { currencyExponent, fromMajor, toMajorString } from '@emberline/domain';
+import { currencyExponent, fromMajor, MoneyInputError, toMajorString, type MoneyInputReason } from '@emberline/domain';
 
 /** Decimal places of a currency: 2 for EUR, SEK, NOK, DKK and CHF. */
 export function minorDigits(currency: string): number {
@@ -28,24 +28,23 @@ export const numberOrNull = (v: unknown): number | null => (typeof v === 'number
 
 export type MajorTextProblem = 'notNumber' | 'negative' | 'tooPrecise' | 'tooLarge';
 
+const PROBLEMS: Partial<Record<MoneyInputReason, MajorTextProblem>> = { negative: 'negative', 'too-many-decimals': 'tooPrecise', 'too-large': 'tooLarge' };
+
 /**
- * Reads an amount as typed ("180", "180.5", "180,50") without changing it: what is not a plain
- * amount of the currency, below 0 or above `maxMinor` is named, never clamped or turned into 0.
+ * Reads an amount as typed ("180", "180.5", "180,50") through the domain's `fromMajor`: what is
+ * not a plain amount of the currency, below 0 or above `maxMinor` is named, never clamped to fit.
  */
 export function parseMajorText(text: string, currency: string, maxMinor: number): { minor: number } | { problem: MajorTextProblem } | null {
-  const typed = text.trim().replace(/\s/g, '');
+  const typed = text.trim().replace(/\s/g, '').replace(/^(-?\d+),(\d*)$/, '$1.$2');
   if (!typed) return null;
-  const m = /^(-?)(\d+)(?:[.,](\d*))?$/.exec(typed);
-  if (!m) return { problem: 'notNumber' };
-  const digits = minorDigits(currency);
-  const fraction = m[3] ?? '';
-  if (m[1] === '-' && /[1-9]/.test(m[2]! + fraction)) return { problem: 'negative' };
-  if (fraction.replace(/0+$/, '').length > digits) return { problem: 'tooPrecise' };
-  // whole digits and fraction as text, so 99999999 and 0.1 + 0.2 never pass through a float
-  const minor = Number(BigInt(m[2]!) * 10n ** BigInt(digits) + BigInt((fraction + '0'.repeat(digits)).slice(0, digits) || '0'));
-  if (minor > maxMinor) return { problem: 'tooLarge' };
-  return { minor };
+  try {
+    const minor = fromMajor(typed, currency);
+    return minor > maxMinor ? { problem: 'tooLarge' } : { minor };
+  } catch (e) {
+    if (e instanceof MoneyInputError) return { problem: PROBLEMS[e.reason] ?? 'notNumber' };
+    throw e;
+  }
 }
 
 /** 18050 EUR -> "180.50", the way the price field shows a stored amount. */
-export const minorToText = (minor: number, currency: string): string => (minor / 10 ** minorDigits(currency)).toFixed(minorDigits(currency));
+export const minorToText = (minor: number, currency: string): string => toMajorString(minor, currency);
