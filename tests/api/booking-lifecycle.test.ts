@@ -49,6 +49,9 @@ describe('starting and finishing a job', () => {
     expect(Date.parse(res.body.earliestStart)).toBe(Date.parse(booking.start) - 2 * HOUR_MS);
     expect(res.body.detail).toContain(booking.reference);
     expect((await bookingRow(t.dataSource, booking.id)).status).toBe('confirmed');
+    // the Console reads the same window to grey out its button
+    const seen = (await request(t.app).get(`/api/orgs/${P.orgId}/bookings/${booking.id}`).set(bearer(P.technician)).expect(200)).body.data;
+    expect(Date.parse(seen.startWindow.from)).toBe(Date.parse(res.body.earliestStart));
   });
 
   it('reads the window from the network setting', async () => {

@@ -143,16 +143,40 @@ describe('Console booking detail', () => {
     expect(decideBooking).toHaveBeenCalledWith(ORG_A, BOOKING_ID, { action: 'cancel', reason: 'Van of the technician broke down' });
   });
 
-  it('asks before marking a job as done', async () => {
-    const wrapper = await mountDetail(inStatus('in_progress'));
+  it('asks before marking a job as done, saying the owner\'s payment is taken and the owner gets the receipt', async () => {
+    const b = inStatus('in_progress');
+    const wrapper = await mountDetail(b);
     vi.mocked(decideBooking).mockResolvedValue(inStatus('completed'));
     await wrapper.find('[data-action="complete"]').trigger('click');
     await flushPromises();
     expect(decideBooking).not.toHaveBeenCalled();
     expect(document.body.querySelector('[data-testid="decision-reason"]')).toBeNull();
+    const text = $('.ant-modal-body').text();
+    expect(text).toContain(`${b.customer.name}’s payment of €${(b.payment.authorisedMinor / 100).toFixed(2)}`);
+    expect(text).toContain('gets the receipt by e-mail');
     dialogButton('Mark as done')!.click();
     await flushPromises();
     expect(decideBooking).toHaveBeenCalledWith(ORG_A, BOOKING_ID, { action: 'complete' });
+  });
+
+  it('keeps "Start" greyed out before the start window opens, saying from when, and after the job\'s day', async () => {
+    const from = new Date(Date.now() + 46 * 3_600_000).toISOString();
+    const early = await mountDetail(inStatus('confirmed', { start: hoursFromNow(48), end: hoursFromNow(49.5), startWindow: { from, until: hoursFromNow(60) } }));
+    expect(actionsOf(early)).toEqual(['start', 'reschedule', 'cancel']);
+    expect(early.find('[data-action="start"]').attributes('disabled')).toBeDefined();
+    const time = new Intl.DateTimeFormat('en', { hour: '2-digit', minute: '2-digit', hourCycle: 'h23', timeZone: 'Europe/Vienna' }).format(new Date(from));
+    expect(early.find('[data-testid="start-hint"]').text()).toContain(`You can start this job from`);
+    expect(early.find('[data-testid="start-hint"]').text()).toContain(time);
+    early.unmount();
+
+    const open = await mountDetail(inStatus('confirmed', { start: hoursFromNow(1), end: hoursFromNow(1.5), startWindow: { from: hoursFromNow(-1), until: hoursFromNow(10) } }));
+    expect(open.find('[data-action="start"]').attributes('disabled')).toBeUndefined();
+    expect(open.find('[data-testid="start-hint"]').exists()).toBe(false);
+    open.unmount();
+
+    const over = await mountDetail(inStatus('confirmed', { start: hoursFromNow(-30), end: hoursFromNow(-29), startWindow: { from: hoursFromNow(-32), until: hoursFromNow(-10) } }));
+    expect(over.find('[data-action="start"]').attributes('disabled')).toBeDefined();
+    expect(over.find('[data-testid="start-hint"]').text()).toContain('no longer be started');
   });
 
   it('says plainly when the move is no longer allowed and reloads the booking', async () => {

@@ -2,6 +2,7 @@
 // partner share) and the partner's (with it). Reading only; changes go through the lifecycle.
 import type { EntityManager } from 'typeorm';
 import {
+  jobStartWindow,
   ownerCancellation,
   type Booking,
   type BookingActor,
@@ -12,6 +13,7 @@ import {
 } from '@emberline/domain';
 import { NotFound } from '../lib/errors';
 import { json } from '../lib/json-column';
+import { jobStartWindowMinutes } from './network-settings';
 import type { KitLine } from './quote.service';
 
 export type PaymentStatus = Booking['payment']['status'];
@@ -129,7 +131,7 @@ async function historyOf(manager: EntityManager, ids: string[]): Promise<Map<str
 
 export type BookingView = 'owner' | 'partner';
 
-function toBooking(r: BookingRow, history: Booking['history'], view: BookingView, now: Date): Booking {
+function toBooking(r: BookingRow, history: Booking['history'], view: BookingView, now: Date, startWindowMinutes: number | null): Booking {
   const quote = quoteOf(r);
   const customer = customerOf(r);
   const vehicle = json<VehicleProfile & { vehicleId?: string }>(r.vehicle);
@@ -165,6 +167,7 @@ function toBooking(r: BookingRow, history: Booking['history'], view: BookingView
     // the payment page only while the slot is held, and only for the owner who pays
     checkoutUrl: held && view === 'owner' ? r.checkout_url : null,
     cancellationNow: cancellationNow(r, now),
+    startWindow: startWindowMinutes !== null && r.status === 'confirmed' ? windowOf(r, startWindowMinutes) : null,
     history,
     createdAt: iso(r.created_at),
   };
@@ -172,7 +175,14 @@ function toBooking(r: BookingRow, history: Booking['history'], view: BookingView
 
 export async function shapeBookings(manager: EntityManager, rows: BookingRow[], view: BookingView, now: Date): Promise<Booking[]> {
   const history = await historyOf(manager, rows.map((r) => r.id));
-  return rows.map((r) => toBooking(r, history.get(r.id) ?? [], view, now));
+  // the Console greys out "Start" outside the window the API enforces
+  const minutes = view === 'partner' && rows.some((r) => r.status === 'confirmed') ? await jobStartWindowMinutes(manager) : null;
+  return rows.map((r) => toBooking(r, history.get(r.id) ?? [], view, now, minutes));
+}
+
+function windowOf(r: BookingRow, minutes: number): { from: string; until: string } {
+  const w = jobStartWindow(new Date(r.start_at), r.time_zone, minutes);
+  return { from: w.from.toISOString(), until: w.until.toISOString() };
 }
 
 /** One booking by id within a scope (owner or organisation); 404 outside it. `lock` takes the row for the transaction. */

@@ -271,6 +271,8 @@ const en = {
       openPdf: 'Show PDF',
       closePdf: 'Hide PDF',
       pdfTitle: 'PDF viewer: {name}',
+      download: 'Download',
+      downloadFor: 'Download {name}',
       loading: 'Loading the preview…',
       failed: 'The preview could not be loaded.',
       delete: 'Delete',
@@ -1058,7 +1060,7 @@ const en = {
         },
         complete: {
           title: 'Mark booking {reference} as done?',
-          text: 'The payment of {amount} is taken, the parts of the kit leave your stock and {customer} is told the job is finished. This cannot be undone.',
+          text: 'This takes {customer}’s payment of {amount}, the parts of the kit leave your stock, and {customer} gets the receipt by e-mail. This cannot be undone.',
           ok: 'Mark as done',
         },
       },

@@ -157,6 +157,8 @@ export const BookingSchema = z.object({
   checkoutUrl: z.string().nullable(),
   /** What cancelling now would cost the owner under the policy. */
   cancellationNow: z.object({ allowed: z.boolean(), feeMinor: z.number().int(), refundMinor: z.number().int() }),
+  /** Partner view of a confirmed job: when it may be started (jobStartWindow with the network's setting). */
+  startWindow: z.object({ from: z.string(), until: z.string() }).nullable().optional(),
   history: z.array(BookingEventSchema),
   createdAt: z.string(),
 });
