@@ -18,5 +18,6 @@ export * from './schemas/eligibility';
 export * from './eligibility';
 export * from './schemas/search';
 export * from './search';
+export * from './money/units';
 export * from './quote';
 export * from './schemas/bookings';

@@ -5,13 +5,14 @@
 // half up to the currency's minor unit (commercial rounding); totals are sums of rounded lines.
 import { add, allocate, dinero, halfUp, multiply, toSnapshot, transformScale, type Dinero, type DineroCurrency } from 'dinero.js';
 import { DomainInputError } from '../errors';
-import { CancellationSchema, DepositSchema, type Cancellation, type Currency, type Deposit } from '../schemas/offers';
+import { currencyExponent } from '../money/units';
+import { CancellationSchema, CURRENCIES, DepositSchema, type Cancellation, type Currency, type Deposit } from '../schemas/offers';
 import { partnerShareLines } from './partner-share';
 import type { VatRateEntry } from './vat-rates';
 import { vatTreatment, type Customer, type VatOutcome, type VatSupply } from './vat-rules';
 
 /** ISO 4217 minor units of the currencies we price in (2 for each; checked against currency-codes). */
-export const CURRENCY_MINOR_UNITS: Readonly<Record<Currency, number>> = Object.freeze({ EUR: 2, SEK: 2, NOK: 2, DKK: 2, CHF: 2 });
+export const CURRENCY_MINOR_UNITS = Object.freeze(Object.fromEntries(CURRENCIES.map((c) => [c, currencyExponent(c)]))) as Readonly<Record<Currency, number>>;
 
 const currencyOf = (code: Currency): DineroCurrency<number> => ({ code, base: 10, exponent: CURRENCY_MINOR_UNITS[code] });
 
