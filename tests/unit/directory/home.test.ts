@@ -8,6 +8,7 @@ import type { Capability, ServiceType } from '@emberline/domain';
 import { listCapabilities, listServiceTypes } from '@/api/catalogue';
 import { i18n } from '@/locales';
 import { createAppRouter } from '@/router';
+import App from '@/app.vue';
 import Home from '@/views/home/index.vue';
 
 vi.mock('@/api/catalogue', () => ({ listServiceTypes: vi.fn(), listCapabilities: vi.fn() }));
@@ -124,6 +125,18 @@ describe('Directory home', () => {
     const empty = wrapper.find('#services [data-state="empty"]');
     expect(empty.text()).toContain('No services are listed yet');
     expect(empty.find('a').attributes('href')).toBe('/safety');
+  });
+
+  it('asks for the service types once for the header form and the catalogue together', async () => {
+    vi.mocked(listServiceTypes).mockResolvedValue(serviceTypes);
+    const router = createAppRouter(createMemoryHistory());
+    await router.push('/');
+    await router.isReady();
+    const wrapper = mount(App, { global: { plugins: [router, i18n] } });
+    await flushPromises();
+    expect(wrapper.findAll('#services article')).toHaveLength(2);
+    expect(wrapper.find('.site-header__search').text()).toContain('Handset pairing');
+    expect(listServiceTypes).toHaveBeenCalledTimes(1);
   });
 
   it('shows an error with a retry that loads the catalogue again', async () => {

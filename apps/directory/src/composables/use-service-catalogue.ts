@@ -1,7 +1,8 @@
 // Bookable service types with the names of the equipment each one needs.
 import type { ServiceType } from '@emberline/domain';
 import { useAsyncData } from '@emberline/ui';
-import { listCapabilities, listServiceTypes } from '@/api/catalogue';
+import { listCapabilities } from '@/api/catalogue';
+import { useCatalogueStore } from '@/stores/catalogue';
 
 export interface ServiceCatalogue {
   serviceTypes: ServiceType[];
@@ -10,10 +11,11 @@ export interface ServiceCatalogue {
 }
 
 export function useServiceCatalogue() {
+  const catalogue = useCatalogueStore();
   return useAsyncData<ServiceCatalogue>(async (signal) => {
-    const [serviceTypes, capabilities] = await Promise.all([listServiceTypes(signal), listCapabilities(signal)]);
+    const [serviceTypes, capabilities] = await Promise.all([catalogue.bookableServiceTypes(), listCapabilities(signal)]);
     return {
-      serviceTypes: serviceTypes.filter((s) => !s.retired),
+      serviceTypes,
       capabilityNames: Object.fromEntries(capabilities.map((c) => [c.code, c.name])),
     };
   });
@@ -21,5 +23,6 @@ export function useServiceCatalogue() {
 
 /** Service types only, for pickers. */
 export function useServiceTypes() {
-  return useAsyncData<ServiceType[]>(async (signal) => (await listServiceTypes(signal)).filter((s) => !s.retired));
+  const catalogue = useCatalogueStore();
+  return useAsyncData<ServiceType[]>(() => catalogue.bookableServiceTypes());
 }
