@@ -1,13 +1,14 @@
 // `npm run bench`: the benchmarks the issues name: the slot engine, the Directory search against a
 // generated network of 10,000 partners (scripts/lib/bench-search.ts), 50 owners racing for 10
 // booking starts (scripts/lib/bench-booking.ts), 20 concurrent sign-ins while searches run
-// (scripts/lib/bench-sign-in.ts), and a warm `npm start`
+// (scripts/lib/bench-sign-in.ts), the idle API's CPU over 60 s (scripts/lib/bench-idle.ts), and a warm `npm start`
 // (packages and MariaDB installed, apps built) until /api/health answers 200, median of 5 runs.
 import { spawn, spawnSync } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { benchBooking } from './lib/bench-booking';
+import { benchIdle } from './lib/bench-idle';
 import { benchSearch } from './lib/bench-search';
 import { benchSignIn } from './lib/bench-sign-in';
 import { waitForHttp } from './lib/net';
@@ -44,6 +45,11 @@ if (wants('search')) {
 if (wants('sign-in')) {
   step('Sign-in under load: 20 owners at the same moment while searches run');
   await benchSignIn();
+}
+
+if (wants('idle')) {
+  step('Idle API: CPU of an instance with its scheduler and no requests, 60 s');
+  await benchIdle();
 }
 
 if (wants('booking')) {
