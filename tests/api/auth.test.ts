@@ -38,6 +38,21 @@ describe('owner sign-up and e-mail verification', () => {
     expect(me.body.data.email).toBe(email);
   });
 
+  it('carries a same-site return path into the confirmation link, and refuses any other', async () => {
+    const email = uniqueEmail('owner');
+    const returnTo = '/book/4f6d2a7e-0000-4000-8000-000000000001?serviceType=seasonal-heater-service&start=2030-01-07T09:00:00.000Z';
+    await request(t.app).post('/api/auth/sign-up').send({ name: 'Return Test', email, password: GOOD_PASSWORD, returnTo }).expect(202);
+    const link = new URL(await linkFromMail(t.dataSource, email, 'verify-email'));
+    expect(link.pathname).toBe('/verify-email');
+    expect(link.searchParams.get('next')).toBe(returnTo);
+    await request(t.app).post('/api/auth/verify-email').send({ token: link.searchParams.get('token') }).expect(200);
+
+    for (const bad of ['https://elsewhere.example/book', '//elsewhere.example/book', '/\\elsewhere.example', 'book/1', '/book\nSet-Cookie: x', `/${'a'.repeat(1000)}`]) {
+      const res = await request(t.app).post('/api/auth/sign-up').send({ name: 'X', email: uniqueEmail(), password: GOOD_PASSWORD, returnTo: bad }).expect(400);
+      expect(res.body.errors.map((e: { path: string }) => e.path), bad).toContain('returnTo');
+    }
+  });
+
   it('refuses weak passwords with field errors', async () => {
     for (const [password, message] of [
       ['short', /at least 10/],

@@ -52,9 +52,11 @@ export const ACCEPTED_SIGN_UP = 'Thanks! If this address can be used, we have se
 export const ACCEPTED_RESET = 'If an account uses this address, we have sent a link to choose a new password. Please check your inbox.';
 export const ACCEPTED_RESEND = 'If this address has an account waiting for confirmation, we have sent a new link.';
 
-export function appLink(settings: AuthSettings, app: 'directory' | 'console', route: string, token: string): string {
+/** A one-time link; other parameters go before the token, which stays last (redacted to its end). */
+export function appLink(settings: AuthSettings, app: 'directory' | 'console', route: string, token: string, params: Record<string, string> = {}): string {
   const base = app === 'console' ? `${settings.publicUrl}/console` : settings.publicUrl;
-  return `${base}/${route}?token=${encodeURIComponent(token)}`;
+  const query = new URLSearchParams({ ...params, token }).toString();
+  return `${base}/${route}?${query}`;
 }
 
 async function createOneTimeToken(manager: EntityManager, userId: string, purpose: OneTimePurpose, minutes: number): Promise<string> {
@@ -77,13 +79,14 @@ async function consumeOneTimeToken(manager: EntityManager, token: string, purpos
   return manager.getRepository(UserAccountEntity).findOneByOrFail({ id: row.userId });
 }
 
-async function sendVerification(manager: EntityManager, user: UserAccountEntity, app: 'directory' | 'console', settings: AuthSettings) {
+/** `returnTo` (validated as a same-app path by the route's schema) rides along as `next`, so the link lands where sign-up began. */
+async function sendVerification(manager: EntityManager, user: UserAccountEntity, app: 'directory' | 'console', settings: AuthSettings, returnTo?: string) {
   const token = await createOneTimeToken(manager, user.id, 'verify_email', VERIFY_HOURS * 60);
   await enqueueMail(manager, {
     to: user.email,
     template: 'verify-email',
     locale: user.locale,
-    data: { name: user.name, link: appLink(settings, app, 'verify-email', token) },
+    data: { name: user.name, link: appLink(settings, app, 'verify-email', token, returnTo ? { next: returnTo } : {}) },
   });
 }
 
@@ -104,16 +107,16 @@ async function createUser(manager: EntityManager, input: { name: string; email: 
 }
 
 /** Existing addresses get the same answer; an unconfirmed one gets a fresh link. */
-async function handleExistingAddress(manager: EntityManager, existing: UserAccountEntity, password: string, app: 'directory' | 'console', settings: AuthSettings) {
+async function handleExistingAddress(manager: EntityManager, existing: UserAccountEntity, password: string, app: 'directory' | 'console', settings: AuthSettings, returnTo?: string) {
   await hashPassword(password, settings.passwordHashCost); // same work as a real sign-up
-  if (!existing.emailVerifiedAt) await sendVerification(manager, existing, app, settings);
+  if (!existing.emailVerifiedAt) await sendVerification(manager, existing, app, settings, returnTo);
 }
 
 export async function signUpOwner(ctx: ServiceContext, input: OwnerSignUp & { locale: 'en' | 'de' }, settings: AuthSettings): Promise<void> {
   const existing = await ctx.manager.getRepository(UserAccountEntity).findOneBy({ email: input.email });
-  if (existing) return handleExistingAddress(ctx.manager, existing, input.password, 'directory', settings);
+  if (existing) return handleExistingAddress(ctx.manager, existing, input.password, 'directory', settings, input.returnTo);
   const user = await createUser(ctx.manager, input, settings, { isOwner: true });
-  await sendVerification(ctx.manager, user, 'directory', settings);
+  await sendVerification(ctx.manager, user, 'directory', settings, input.returnTo);
 }
 
 export async function signUpPartner(ctx: ServiceContext, input: PartnerSignUp & { locale: 'en' | 'de' }, settings: AuthSettings): Promise<void> {

@@ -86,8 +86,32 @@ function withPasswordRules<T extends z.ZodObject<{ email: typeof EmailSchema; pa
 export const NameSchema = z.string().trim().min(1, 'Enter your name').max(120, 'Use at most 120 characters');
 export const LocaleSchema = z.enum(['en', 'de']).default('en');
 
+/** The longest return address an app carries through sign-in, sign-up and the e-mail link. */
+export const RETURN_PATH_MAX = 1000;
+
+/**
+ * Whether a return address is a path inside the same app, so following it never leaves the site:
+ * one leading slash (not "//" or "/\\", which browsers read as another host), no backslashes,
+ * spaces or control characters, and resolving it against any origin keeps that origin.
+ */
+export function isSafeReturnPath(value: unknown): value is string {
+  if (typeof value !== 'string' || value.length > RETURN_PATH_MAX || !value.startsWith('/')) return false;
+  if (value.startsWith('//') || /[\\\s]/.test(value) || /\p{Cc}/u.test(value)) return false;
+  try {
+    return new URL(value, 'https://return.invalid').origin === 'https://return.invalid';
+  } catch {
+    return false;
+  }
+}
+
+export const ReturnPathSchema = z
+  .string()
+  .max(RETURN_PATH_MAX, `Use at most ${RETURN_PATH_MAX} characters`)
+  .refine(isSafeReturnPath, 'Must be a path inside this site, starting with one "/"')
+  .describe('Where the app goes on after the e-mail address is confirmed: a path inside the same app');
+
 export const OwnerSignUpSchema = withPasswordRules(
-  z.object({ name: NameSchema, email: EmailSchema, password: PasswordSchema, locale: LocaleSchema }),
+  z.object({ name: NameSchema, email: EmailSchema, password: PasswordSchema, locale: LocaleSchema, returnTo: ReturnPathSchema.optional() }),
 );
 export type OwnerSignUp = z.input<typeof OwnerSignUpSchema>;
 
