@@ -119,11 +119,14 @@ export async function createBooking(ctx: BookingContext, body: BookingRequest): 
   if (body.technicianId && !plan.technicians.some((t) => t.id === body.technicianId)) throw invalid('technicianId', 'This technician does not do this service');
   const candidates = body.technicianId ? [body.technicianId] : plan.technicians.map((t) => t.id);
   const settings = await quoteSettings(manager);
+  const start = new Date(body.start);
+
+  const resumed = await resumeOwnHold(ctx, body, plan, settings, start, address);
+  if (resumed) return resumed;
 
   // from here until the commit, nobody else books these technicians
   await lockTechnicians(manager, plan.partner.id, candidates);
   const technicians = await technicianHours(manager, plan.partner.id, candidates);
-  const start = new Date(body.start);
   const chosen = await freeTechnician(manager, { technicians, base: plan.partner.base, location: plan.location, durationMinutes: plan.durationMinutes, start, now });
   if (!chosen) throw SlotTaken(SLOT_TAKEN_MESSAGE);
 
@@ -207,6 +210,51 @@ export async function createBooking(ctx: BookingContext, body: BookingRequest): 
   });
   await manager.query('UPDATE booking SET checkout_session_id = ?, checkout_url = ? WHERE id = ?', [checkout.sessionId, checkout.url, id]);
   return (await shapeBookings(manager, [await findBookingRow(manager, id, {})], 'owner', now))[0]!;
+}
+
+type JobPlan = Awaited<ReturnType<typeof planJob>>;
+
+/**
+ * The owner asks again for a time she holds herself (back from the payment page, or "try again"
+ * after a declined card): that is her hold, not a race. Same partner, service and start, hold not
+ * lapsed: the same booking and payment page come back, with the details she may have corrected.
+ * When the correction changes the price, the place or the technician, the old hold is given up
+ * and the start is booked afresh (and checked like any booking). Answers null when there is none.
+ */
+async function resumeOwnHold(ctx: BookingContext, body: BookingRequest, plan: JobPlan, settings: Awaited<ReturnType<typeof quoteSettings>>, start: Date, address: BookingRequest['address'] | null): Promise<Booking | null> {
+  const { manager, now } = ctx;
+  const ownerId = ctx.actor.userId!;
+  const [held]: { id: string }[] = await manager.query(
+    "SELECT id FROM booking WHERE owner_user_id = ? AND organisation_id = ? AND offer_id = ? AND start_at = ? AND status = 'held' AND hold_expires_at > ? ORDER BY created_at DESC LIMIT 1 FOR UPDATE",
+    [ownerId, plan.partner.id, plan.offer.id, start, now],
+  );
+  if (!held) return null;
+  const row = await findBookingRow(manager, held.id, { ownerUserId: ownerId }, true);
+  const quote = quoteFor(plan, settings, {
+    vatId: body.customer.kind === 'business' ? body.customer.vatId : null,
+    supplyDate: localDate(start, row.time_zone),
+  });
+  const samePlace = row.job_at === body.jobAt && Number(row.job_lat) === plan.location.lat && Number(row.job_lng) === plan.location.lng;
+  const sameTechnician = !body.technicianId || body.technicianId === row.technician_user_id;
+  if (samePlace && sameTechnician && quote.grossMinor === minor(row.gross_minor) && quote.currency === row.currency && row.checkout_url) {
+    const customer = { ...customerOf(row), kind: body.customer.kind, companyName: body.customer.kind === 'business' ? body.customer.companyName : null, vatId: body.customer.kind === 'business' ? body.customer.vatId : null };
+    await manager.query('UPDATE booking SET address = ?, vehicle = ?, customer = ?, phone = ?, notes = ?, quote = ?, kit = ? WHERE id = ?', [
+      address ? JSON.stringify(address) : null,
+      JSON.stringify({ ...profileOf(body.vehicle), vehicleId: body.vehicleId ?? null }),
+      JSON.stringify(customer),
+      body.phone || null,
+      body.notes || null,
+      JSON.stringify(quote),
+      JSON.stringify(plan.kit),
+      row.id,
+    ]);
+    await audit(ctx, { action: 'booking.resume-hold', entityType: 'booking', entityId: row.id, organisationId: row.organisation_id, after: { reference: row.reference } });
+    return one(ctx, await findBookingRow(manager, row.id, {}), 'owner', now);
+  }
+  // paid meanwhile: the booking has moved on, and the start is checked like anyone else's
+  if (!(await closeCheckout(ctx, row))) return null;
+  await transition(ctx, row.id, 'released', 'owner', 'The owner changed the details before paying and booked again', { set: { payment_status: 'cancelled' } });
+  return null;
 }
 
 // ---- the owner's side ----
