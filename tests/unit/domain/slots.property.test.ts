@@ -22,9 +22,28 @@ const TIMEOUT = 60_000;
 const ZONES = ['Europe/Berlin', 'Europe/London', 'Europe/Helsinki', 'America/New_York', 'Australia/Lord_Howe', 'Pacific/Auckland', 'Asia/Kathmandu', 'UTC'];
 // Days around the 2026 changes in those zones (IANA tz database), to be sure the runs cross them.
 const CHANGE_DATES = ['2026-03-29', '2026-10-25', '2026-03-08', '2026-11-01', '2026-04-05', '2026-09-27', '2026-10-04'];
-// Interval boundaries avoid 01:00–03:55, where those zones skip or repeat wall-clock times, so the
-// oracle can read "inside working hours" off the local labels; the DST reference tests cover them.
-const MARKS = Array.from({ length: 289 }, (_, i) => i * 5).filter((m) => m < 60 || m >= 240);
+const ALL_MARKS = Array.from({ length: 289 }, (_, i) => i * 5);
+// On those dates interval boundaries avoid 01:00–03:55, where the clocks may go back: the oracle
+// reads "inside working hours" off the local labels, which does not say which of the two
+// occurrences of a repeated time a boundary means (the unit tests pin the first).
+const MARKS = ALL_MARKS.filter((m) => m < 60 || m >= 240);
+// Searches next to a spring-forward gap or a skipped day, whose boundaries fall anywhere, mostly on
+// and around the gap's ends. Inside a gap no 5-minute instant carries the local time, so the
+// oracle's reading of the labels is the rule "hours are clipped to the instants that exist". Local
+// gaps [from, to) in minutes: IANA tz database 2025c as reported by Intl in Node 20.20.2 (ICU 78.2),
+// checked in slots-clock-gaps.test.ts; the skipped days are gaps of a whole day.
+const GAPS = [
+  { zone: 'Europe/Berlin', date: '2026-03-29', from: 120, to: 180 },
+  { zone: 'Europe/London', date: '2026-03-29', from: 60, to: 120 },
+  { zone: 'Europe/Helsinki', date: '2026-03-29', from: 180, to: 240 },
+  { zone: 'America/New_York', date: '2026-03-08', from: 120, to: 180 },
+  { zone: 'Australia/Lord_Howe', date: '2026-10-04', from: 120, to: 150 },
+  { zone: 'Pacific/Auckland', date: '2026-09-27', from: 120, to: 180 },
+  { zone: 'Pacific/Apia', date: '2011-12-30', from: 0, to: 1440 },
+  { zone: 'Pacific/Kiritimati', date: '1994-12-31', from: 0, to: 1440 },
+  { zone: 'Pacific/Kwajalein', date: '1993-08-21', from: 0, to: 1440 },
+];
+const gapEnds = (g: (typeof GAPS)[number]) => [...new Set([g.from - 5, g.from, g.from + 5, Math.round((g.from + g.to) / 10) * 5, g.to - 5, g.to, g.to + 5])].filter((m) => m >= 0 && m <= 1440);
 const hhmm = (m: number) => `${String(Math.floor(m / 60)).padStart(2, '0')}:${String(m % 60).padStart(2, '0')}`;
 
 // ---------------------------------------------------------------- the oracle (Intl, per cell)
@@ -123,20 +142,31 @@ function oracle(q: SlotQuery): number[] {
 
 // ---------------------------------------------------------------- generators
 const nearAlps = fc.record({ lat: fc.double({ min: 46.5, max: 48.5, noNaN: true }), lng: fc.double({ min: 10.5, max: 13.5, noNaN: true }) });
-const intervalsOf = (minLength: number) => fc.uniqueArray(fc.constantFrom(...MARKS), { minLength, maxLength: 6 }).map((marks) => {
+const intervalsOf = (mark: fc.Arbitrary<number>, minLength: number) => fc.uniqueArray(mark, { minLength, maxLength: 6 }).map((marks) => {
   const sorted = [...marks].sort((a, b) => a - b);
   const out: Array<{ start: string; end: string }> = [];
   for (let i = 0; i + 1 < sorted.length; i += 2) out.push({ start: hhmm(sorted[i]!), end: hhmm(sorted[i + 1]!) });
   return out;
 });
 // mostly working days, some days off
-const intervals = fc.oneof({ arbitrary: intervalsOf(2), weight: 3 }, { arbitrary: intervalsOf(0), weight: 1 });
+const intervalsFrom = (mark: fc.Arbitrary<number>) => fc.oneof({ arbitrary: intervalsOf(mark, 2), weight: 3 }, { arbitrary: intervalsOf(mark, 0), weight: 1 });
 const startDate = fc.oneof(fc.constantFrom(...CHANGE_DATES), fc.integer({ min: 0, max: 364 }).map((d) => addDays('2026-01-01', d)));
 
+const ordinary = fc.record({ zone: fc.constantFrom(...ZONES), date: startDate, intervals: fc.constant(intervalsFrom(fc.constantFrom(...MARKS))) });
+// the search starts on the gap's date or the day before, so its one to three days mostly reach it
+const nearGap = fc.constantFrom(...GAPS).chain((g) =>
+  fc.record({
+    zone: fc.constant(g.zone),
+    date: fc.integer({ min: -1, max: 0 }).map((d) => addDays(g.date, d)),
+    intervals: fc.constant(intervalsFrom(fc.oneof({ arbitrary: fc.constantFrom(...gapEnds(g)), weight: 2 }, { arbitrary: fc.constantFrom(...ALL_MARKS), weight: 1 }))),
+  }),
+);
+
 const queries = fc
-  .record({
-    zone: fc.constantFrom(...ZONES),
-    date: startDate,
+  .oneof(ordinary, nearGap)
+  .chain(({ zone, date, intervals }) => fc.record({
+    zone: fc.constant(zone),
+    date: fc.constant(date),
     fromCells: fc.integer({ min: -14 * 12, max: 24 * 12 }),
     nowCells: fc.integer({ min: -576, max: 36 }),
     days: fc.integer({ min: 1, max: 3 }),
@@ -155,7 +185,7 @@ const queries = fc
     customer: nearAlps,
     base: nearAlps,
     baseAtCustomer: fc.boolean(),
-  })
+  }))
   .map((g): SlotQuery => {
     const day0 = Date.parse(`${g.date}T00:00:00Z`);
     const from = day0 + g.fromCells * CELL;
