@@ -1,5 +1,8 @@
 // The slot engine: bookable start times per technician and for the organisation, from working
 // hours, exceptions, existing bookings and driving time. Pure: the caller passes `now`.
+// Working hours are clipped to the real instants inside them: a start in a spring-forward gap
+// begins at the gap's end, an end in it ends at the gap's start (the same instant), hours wholly
+// inside it are empty, and a calendar day the zone skipped has no hours (none move to the next day).
 import { DateTime } from 'luxon';
 import { assertGeoPoint, type GeoPoint } from '../geo/distance';
 import { assertTravelAssumptions, DEFAULT_TRAVEL_ASSUMPTIONS, travelMinutes, type TravelAssumptions } from '../geo/travel';
