@@ -102,6 +102,8 @@ const MATRIX: Record<string, Row> = {
   'post /api/orgs/{orgId}/parts': ORG_WRITE,
   'patch /api/orgs/{orgId}/parts/{partId}': ORG_WRITE,
   'delete /api/orgs/{orgId}/parts/{partId}': ORG_WRITE,
+  'get /api/orgs/{orgId}/booking-settings': ORG_READ,
+  'put /api/orgs/{orgId}/booking-settings': ORG_WRITE,
   'get /api/orgs/{orgId}/travel-policy': ORG_READ,
   'put /api/orgs/{orgId}/travel-policy': ORG_WRITE,
   'get /api/orgs/{orgId}/service-area': ORG_READ,

@@ -88,6 +88,7 @@ const sampleBodies: Record<string, () => object> = {
   'post /api/orgs/{orgId}/parts': () => PART,
   'patch /api/orgs/{orgId}/parts/{partId}': () => ({ stock: 3 }),
   'put /api/orgs/{orgId}/service-area': () => AREA,
+  'put /api/orgs/{orgId}/booking-settings': () => ({ autoConfirmBookings: false }),
   'put /api/orgs/{orgId}/travel-policy': () => ({ freeWithinKm: 20, ratePerKmMinor: 80, currency: 'EUR', maxDistanceKm: 150 }),
   'put /api/orgs/{orgId}/technicians/{userId}/hours': () => HOURS,
   'post /api/orgs/{orgId}/bookings/{bookingId}/decision': () => ({ action: 'accept' }),

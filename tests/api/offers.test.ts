@@ -163,6 +163,23 @@ describe('a price of 0', () => {
   });
 });
 
+describe('booking settings', () => {
+  it('turns automatic confirmation on and off for partner admins, audited; bad values are field errors', async () => {
+    const path = `/api/orgs/${A.orgId}/booking-settings`;
+    expect((await request(t.app).get(path).set(bearer(A.technician!)).expect(200)).body.data).toEqual({ organisationId: A.orgId, autoConfirmBookings: false });
+    const on = await request(t.app).put(path).set(bearer(A.admin)).send({ autoConfirmBookings: true }).expect(200);
+    expect(on.body.data).toEqual({ organisationId: A.orgId, autoConfirmBookings: true });
+    const [row] = await t.dataSource.query('SELECT auto_confirm_bookings FROM organisation WHERE id = ?', [A.orgId]);
+    expect(Number(row.auto_confirm_bookings)).toBe(1);
+    expect(paths(await request(t.app).put(path).set(bearer(A.admin)).send({ autoConfirmBookings: 'yes' }).expect(400))).toEqual(['autoConfirmBookings']);
+    await request(t.app).put(path).set(bearer(A.technician!)).send({ autoConfirmBookings: false }).expect(403);
+    await request(t.app).put(path).set(bearer(A.admin)).send({ autoConfirmBookings: false }).expect(200);
+    expect((await request(t.app).get(path).set(bearer(A.admin)).expect(200)).body.data.autoConfirmBookings).toBe(false);
+    const audit: { before: unknown; after: unknown }[] = await t.dataSource.query("SELECT before_state AS `before`, after_state AS `after` FROM audit_log WHERE organisation_id = ? AND action = 'booking-settings.save' ORDER BY id", [A.orgId]);
+    expect(audit).toHaveLength(2);
+  });
+});
+
 describe('travel policy', () => {
   it('is unset at first, then saved; bad values are field errors', async () => {
     const first = await request(t.app).get(`/api/orgs/${A.orgId}/travel-policy`).set(bearer(A.technician!)).expect(200);

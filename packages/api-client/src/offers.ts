@@ -2,6 +2,7 @@
 // bookable slots of a partner.
 import { z } from 'zod';
 import {
+  BookingSettingsSchema,
   OfferInputSchema,
   OfferPatchSchema,
   OfferSchema,
@@ -14,6 +15,8 @@ import {
   TechnicianHoursSchema,
   TravelPolicyInputSchema,
   TravelPolicySchema,
+  type BookingSettings,
+  type BookingSettingsInput,
   type Offer,
   type Part,
   type PartnerSlots,
@@ -31,6 +34,7 @@ const OfferListResponse = z.object({ data: z.array(OfferSchema) });
 const PartResponse = z.object({ data: PartSchema });
 const PartListResponse = z.object({ data: z.array(PartSchema) });
 const TravelPolicyResponse = z.object({ data: TravelPolicySchema });
+const BookingSettingsResponse = z.object({ data: BookingSettingsSchema });
 const ServiceAreaResponse = z.object({ data: ServiceAreaSchema });
 const HoursResponse = z.object({ data: TechnicianHoursSchema });
 const SlotsResponse = z.object({ data: PartnerSlotsSchema });
@@ -81,6 +85,13 @@ export async function updatePart(http: HttpClient, orgId: string, partId: string
 }
 export async function deletePart(http: HttpClient, orgId: string, partId: string): Promise<void> {
   await http.request('DELETE', `${org(orgId)}/parts/${seg(partId)}`, { schema: Deleted });
+}
+
+export async function getBookingSettings(http: HttpClient, orgId: string, signal?: AbortSignal): Promise<BookingSettings> {
+  return (await http.request('GET', `${org(orgId)}/booking-settings`, { schema: BookingSettingsResponse, signal })).data;
+}
+export async function saveBookingSettings(http: HttpClient, orgId: string, body: BookingSettingsInput): Promise<BookingSettings> {
+  return (await http.request('PUT', `${org(orgId)}/booking-settings`, { body, schema: BookingSettingsResponse })).data;
 }
 
 export async function getTravelPolicy(http: HttpClient, orgId: string, signal?: AbortSignal): Promise<TravelPolicy> {

@@ -9,7 +9,7 @@ import type { MemberRole } from '@emberline/domain';
 import { refreshSession } from '@/api/auth';
 import { listCapabilities, listServiceTypes } from '@/api/catalogue';
 import { getApplication } from '@/api/onboarding';
-import { createOffer, deleteOffer, listOffers, listParts, updateOffer } from '@/api/offers';
+import { createOffer, deleteOffer, getBookingSettings, listOffers, listParts, saveBookingSettings, updateOffer } from '@/api/offers';
 import { getTeam } from '@/api/team';
 import { i18n } from '@/locales';
 import { createAppRouter } from '@/router';
@@ -22,7 +22,7 @@ vi.mock('@/api/auth', () => ({ refreshSession: vi.fn(), signIn: vi.fn(), signOut
 vi.mock('@/api/catalogue', () => ({ listCapabilities: vi.fn(), listServiceTypes: vi.fn() }));
 vi.mock('@/api/onboarding', () => ({ getApplication: vi.fn() }));
 vi.mock('@/api/team', () => ({ getTeam: vi.fn() }));
-vi.mock('@/api/offers', () => ({ listOffers: vi.fn(), createOffer: vi.fn(), updateOffer: vi.fn(), deleteOffer: vi.fn(), listParts: vi.fn() }));
+vi.mock('@/api/offers', () => ({ listOffers: vi.fn(), createOffer: vi.fn(), updateOffer: vi.fn(), deleteOffer: vi.fn(), listParts: vi.fn(), getBookingSettings: vi.fn(), saveBookingSettings: vi.fn() }));
 
 async function mountPage(role: MemberRole = 'partner_admin') {
   vi.mocked(refreshSession).mockResolvedValue(session(me({ memberships: [member(role)] })));
@@ -66,6 +66,7 @@ describe('Services and prices', { timeout: 30_000 }, () => {
     vi.mocked(getTeam).mockResolvedValue(team);
     vi.mocked(listParts).mockResolvedValue(parts);
     vi.mocked(listOffers).mockResolvedValue([kitOffer]);
+    vi.mocked(getBookingSettings).mockResolvedValue({ organisationId: ORG_A, autoConfirmBookings: false });
   });
 
   it('lists offers with money in the offer currency, the kit total, deposit and cancellation terms', async () => {
@@ -193,6 +194,24 @@ describe('Services and prices', { timeout: 30_000 }, () => {
     await $('[data-testid="offer-form"]').trigger('submit');
     await flushPromises();
     expect(createOffer).toHaveBeenCalledWith(ORG_A, expect.objectContaining({ priceMinor: 0, free: true }));
+  });
+
+  it('lets a partner admin turn automatic confirmation on; a technician only sees it', async () => {
+    vi.mocked(saveBookingSettings).mockResolvedValue({ organisationId: ORG_A, autoConfirmBookings: true });
+    const wrapper = await mountPage();
+    expect(getBookingSettings).toHaveBeenCalledWith(ORG_A, expect.anything());
+    const state = () => wrapper.find('[data-testid="auto-confirm-state"]').text();
+    expect(state()).toContain('Off: each paid booking waits as a request');
+    expect(wrapper.find('[data-testid="booking-settings"] label').text()).toBe('Confirm paid bookings automatically');
+    await wrapper.find('[data-testid="booking-settings"] button[role="switch"]').trigger('click');
+    await flushPromises();
+    expect(saveBookingSettings).toHaveBeenCalledWith(ORG_A, { autoConfirmBookings: true });
+    expect(state()).toContain('On: a booking is confirmed as soon as the owner’s payment is held');
+    wrapper.unmount();
+    document.body.innerHTML = '';
+    setActivePinia(createPinia());
+    const member = await mountPage('technician');
+    expect(member.find<HTMLButtonElement>('[data-testid="booking-settings"] button[role="switch"]').element.disabled).toBe(true);
   });
 
   it('asks for the price in words a person typing euros understands', async () => {

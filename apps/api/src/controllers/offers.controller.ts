@@ -1,6 +1,6 @@
 // Handlers for an organisation's offers, parts, travel policy and working hours (org guard ran first).
 import type { EntityManager } from 'typeorm';
-import type { OfferInput, OfferPatch, PartInput, PartPatch, ServiceAreaInput, TravelPolicyInput, WorkingHoursDraft } from '@emberline/domain';
+import type { BookingSettingsInput, OfferInput, OfferPatch, PartInput, PartPatch, ServiceAreaInput, TravelPolicyInput, WorkingHoursDraft } from '@emberline/domain';
 import type { AppContext } from '../app-context';
 import type { Actor } from '../lib/context';
 import * as offers from '../services/offers.service';
@@ -42,6 +42,8 @@ export function offersController({ dataSource, config }: AppContext) {
       return { data: DELETED };
     },
 
+    getBookingSettings: async ({ actor }: { actor: Actor }) => ({ data: await offers.getBookingSettings(read(actor)) }),
+    saveBookingSettings: async ({ body, actor }: { body: BookingSettingsInput; actor: Actor }) => ({ data: await tx(actor, (ctx) => offers.saveBookingSettings(ctx, body)) }),
     getTravelPolicy: async ({ actor }: { actor: Actor }) => ({ data: await offers.getTravelPolicy(read(actor)) }),
     saveTravelPolicy: async ({ body, actor }: { body: TravelPolicyInput; actor: Actor }) => ({ data: await tx(actor, (ctx) => offers.saveTravelPolicy(ctx, body)) }),
 

@@ -1,7 +1,9 @@
-// What an organisation sells, under /orgs/:orgId: offers, parts, travel policy and technicians'
-// working hours. Partner admins change them; the whole team and network admins read.
+// What an organisation sells, under /orgs/:orgId: offers, parts, booking settings, travel policy
+// and technicians' working hours. Partner admins change them; the whole team and network admins read.
 import { z } from 'zod';
 import {
+  BookingSettingsInputSchema,
+  BookingSettingsSchema,
   IdSchema,
   OfferInputSchema,
   OfferPatchSchema,
@@ -88,6 +90,26 @@ export function registerOfferRoutes(api: ApiRouter, app: AppContext): void {
   api.route(
     { method: 'delete', path: '/orgs/:orgId/parts/:partId', summary: 'Delete a part that is in no parts kit', tags, ...write, params: PartParams, response: Deleted, problems: [409] },
     c.deletePart,
+  );
+
+  tags = ['Booking settings'];
+  api.route(
+    { method: 'get', path: '/orgs/:orgId/booking-settings', summary: 'How the organisation takes bookings', tags, ...read, params: OrgParams, response: z.object({ data: BookingSettingsSchema }) },
+    c.getBookingSettings,
+  );
+  api.route(
+    {
+      method: 'put',
+      path: '/orgs/:orgId/booking-settings',
+      summary: 'Confirm paid bookings automatically, or accept each one',
+      description: 'With `autoConfirmBookings` a booking is confirmed as soon as its payment is held; without it, it waits as a request for a partner to accept or decline.',
+      tags,
+      ...write,
+      params: OrgParams,
+      body: BookingSettingsInputSchema,
+      response: z.object({ data: BookingSettingsSchema }),
+    },
+    c.saveBookingSettings,
   );
 
   tags = ['Travel and hours'];

@@ -4,6 +4,8 @@
 import type { EntityManager } from 'typeorm';
 import {
   WorkingHoursSchema,
+  type BookingSettings,
+  type BookingSettingsInput,
   type Cancellation,
   type Currency,
   type Deposit,
@@ -332,6 +334,22 @@ export async function saveTravelPolicy(ctx: ServiceContext, input: TravelPolicyI
   );
   const after = await getTravelPolicy(ctx);
   await record(ctx, 'travel-policy.save', 'organisation', orgOf(ctx), before.configured ? before : null, after);
+  return after;
+}
+
+// ---- booking settings ----
+
+export async function getBookingSettings(ctx: ServiceContext): Promise<BookingSettings> {
+  const [row]: { auto_confirm_bookings: number }[] = await ctx.manager.query('SELECT auto_confirm_bookings FROM organisation WHERE id = ?', [orgOf(ctx)]);
+  if (!row) throw NotFound('No such organisation.');
+  return { organisationId: orgOf(ctx), autoConfirmBookings: Boolean(Number(row.auto_confirm_bookings)) };
+}
+
+export async function saveBookingSettings(ctx: ServiceContext, input: BookingSettingsInput): Promise<BookingSettings> {
+  const before = await getBookingSettings(ctx);
+  await ctx.manager.query('UPDATE organisation SET auto_confirm_bookings = ? WHERE id = ?', [input.autoConfirmBookings ? 1 : 0, orgOf(ctx)]);
+  const after = { ...before, autoConfirmBookings: input.autoConfirmBookings };
+  await record(ctx, 'booking-settings.save', 'organisation', orgOf(ctx), before, after);
   return after;
 }
 

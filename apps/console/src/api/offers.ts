@@ -1,10 +1,17 @@
 // What the organisation sells: offers, parts, travel policy, service area, working hours, and the
 // public slots a customer would see.
 import * as client from '@emberline/api-client';
-import type { Offer, Part, PartnerSlots, ServiceArea, TechnicianHours, TravelPolicy, WorkingHoursDraft } from '@emberline/domain';
+import type { BookingSettings, Offer, Part, PartnerSlots, ServiceArea, TechnicianHours, TravelPolicy, WorkingHoursDraft } from '@emberline/domain';
 import { http } from './http';
 
 export type { OfferChange, OfferDraft, PartChange, PartDraft, ServiceAreaDraft, SlotsRequest, TravelPolicyDraft } from '@emberline/api-client';
+
+export function getBookingSettings(orgId: string, signal?: AbortSignal): Promise<BookingSettings> {
+  return client.getBookingSettings(http, orgId, signal);
+}
+export function saveBookingSettings(orgId: string, body: { autoConfirmBookings: boolean }): Promise<BookingSettings> {
+  return client.saveBookingSettings(http, orgId, body);
+}
 
 export function listOffers(orgId: string, signal?: AbortSignal): Promise<Offer[]> {
   return client.listOffers(http, orgId, signal);

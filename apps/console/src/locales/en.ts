@@ -590,6 +590,13 @@ const en = {
     deleted: 'Rule {code} deleted.',
   },
   offers: {
+    bookingSettings: {
+      title: 'How bookings are taken',
+      autoConfirm: 'Confirm paid bookings automatically',
+      onText: 'On: a booking is confirmed as soon as the owner’s payment is held; the owner is told at once.',
+      offText: 'Off: each paid booking waits as a request until someone in your team accepts or declines it.',
+      loadError: 'The booking settings could not be loaded. Reload the page to try again.',
+    },
     title: 'Services and prices',
     leadAdmin: 'What owners can book with you: each service type you offer with its net price, how long it takes, who does it, the parts kit it uses, and your deposit and cancellation terms.',
     leadMember: 'What owners can book with your organisation. Partner admins change offers and prices.',

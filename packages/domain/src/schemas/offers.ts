@@ -165,6 +165,14 @@ export const TravelPolicySchema = z.object({
 });
 export type TravelPolicy = z.infer<typeof TravelPolicySchema>;
 
+/** How the organisation takes bookings: paid bookings are confirmed at once, or wait for the partner to accept. */
+export const BookingSettingsInputSchema = z.object({
+  autoConfirmBookings: z.boolean({ error: 'Say true (confirm paid bookings at once) or false (accept each yourself)' }),
+});
+export type BookingSettingsInput = z.output<typeof BookingSettingsInputSchema>;
+export const BookingSettingsSchema = BookingSettingsInputSchema.extend({ organisationId: IdSchema });
+export type BookingSettings = z.infer<typeof BookingSettingsSchema>;
+
 /** Where an approved organisation works: the same fields and rules as the application's area step. */
 export const ServiceAreaInputSchema = AreaStepSchema;
 export type ServiceAreaInput = z.output<typeof ServiceAreaInputSchema>;
