@@ -7,9 +7,8 @@ import { DateTime } from 'luxon';
 import {
   computeQuote,
   evaluateEligibility,
-  isInServiceArea,
   isValidVatId,
-  travelFee,
+  placeJob,
   VatUndecidableError,
   type Cancellation,
   type Currency,
@@ -17,6 +16,7 @@ import {
   type EligibilityResult,
   type FieldError,
   type GeoPoint,
+  type JobPlacement,
   type Quote,
   type QuoteInput,
   type TravelFee,
@@ -79,6 +79,25 @@ export interface JobPlan {
 }
 
 const invalid = (errors: FieldError[]) => ValidationFailed('Please correct the highlighted fields.', errors);
+
+/** The field errors that say why the partner cannot do the job where the owner asked. */
+function placementErrors(p: JobPlacement, radiusKm: number | null, maxDistanceKm: number, paths: FieldPaths): FieldError[] {
+  const atPlace = (message: string) => [{ path: paths.lat, message }, { path: paths.lng, message }];
+  switch (p.reason!) {
+    case 'workshop-only':
+      return [{ path: paths.jobAt, message: 'This partner works only at its workshop: choose the workshop' }];
+    case 'mobile-only':
+      return [{ path: paths.jobAt, message: 'This partner comes to you and has no workshop: choose your place' }];
+    case 'no-place':
+      return atPlace('Put the pin where the vehicle will be');
+    case 'outside-area':
+      return atPlace(`This place is outside the partner's service area (${radiusKm ?? 0} km around its base)`);
+    case 'no-travel-price':
+      return [{ path: paths.jobAt, message: 'This partner has no travel price yet: choose the workshop or another partner' }];
+    case 'beyond-reach':
+      return atPlace(`By road this place is about ${p.travel?.roadKm} km from the partner's base; they drive at most ${maxDistanceKm} km`);
+  }
+}
 
 /**
  * Plans a job with an approved partner, or throws field errors (at `paths`) that say what does not
@@ -143,37 +162,17 @@ export async function planJob(manager: EntityManager, input: JobInput, paths: Fi
   const missing = eligibility.requiredCapabilities.filter((c) => !holds.has(c));
   if (missing.length) throw invalid([{ path: paths.serviceType, message: `For this vehicle the job needs equipment this partner does not list: ${missing.join(', ')}` }]);
 
-  let location: GeoPoint;
-  let travel: JobPlan['travel'] = null;
-  let workCountry: string | null;
-  if (input.jobAt === 'owner') {
-    if (partner.mode === 'workshop') throw invalid([{ path: paths.jobAt, message: 'This partner works only at its workshop: choose the workshop' }]);
-    if (!input.place) {
-      const message = 'Put the pin where the vehicle will be';
-      throw invalid([{ path: paths.lat, message }, { path: paths.lng, message }]);
-    }
-    if (partner.radiusKm === null || !isInServiceArea(input.place, partner.base, partner.radiusKm * 1000)) {
-      const message = `This place is outside the partner's service area (${partner.radiusKm ?? 0} km around its base)`;
-      throw invalid([{ path: paths.lat, message }, { path: paths.lng, message }]);
-    }
-    const policy = policies[0];
-    if (!policy || policy.currency !== offer.currency) throw invalid([{ path: paths.jobAt, message: 'This partner has no travel price yet: choose the workshop or another partner' }]);
-    const freeWithinKm = Number(policy.free_within_km);
-    const fee = travelFee({ freeWithinKm, ratePerKmMinor: Number(policy.rate_per_km_minor), maxDistanceKm: Number(policy.max_distance_km) }, partner.base, input.place);
-    if (!fee.withinReach) {
-      const message = `By road this place is about ${fee.roadKm} km from the partner's base; they drive at most ${Number(policy.max_distance_km)} km`;
-      throw invalid([{ path: paths.lat, message }, { path: paths.lng, message }]);
-    }
-    location = { lat: input.place.lat, lng: input.place.lng };
-    travel = { ...fee, freeWithinKm };
-    // never the partner's country in its place: across a border that would be the wrong VAT
-    workCountry = input.placeCountry ?? null;
-  } else {
-    if (partner.mode === 'mobile') throw invalid([{ path: paths.jobAt, message: 'This partner comes to you and has no workshop: choose your place' }]);
-    location = partner.base;
-    // the work is done at the workshop, in the partner's own country
-    workCountry = partner.country;
-  }
+  const policy = policies[0];
+  const travelPolicy = policy ? { freeWithinKm: Number(policy.free_within_km), ratePerKmMinor: Number(policy.rate_per_km_minor), maxDistanceKm: Number(policy.max_distance_km), currency: policy.currency } : null;
+  const place = input.jobAt === 'owner' && input.place ? { lat: input.place.lat, lng: input.place.lng } : null;
+  const placement = placeJob({ base: partner.base, mode: partner.mode, radiusKm: partner.radiusKm, travelPolicy }, place, input.jobAt, offer.currency);
+  if (!placement.possible) throw invalid(placementErrors(placement, partner.radiusKm, travelPolicy?.maxDistanceKm ?? 0, paths));
+  // a job at the owner's place is possible only with the place; at the workshop the work is done
+  // in the partner's own country, but never take that country for the owner's place: across a
+  // border it would be the wrong VAT
+  const location: GeoPoint = place ?? partner.base;
+  const travel: JobPlan['travel'] = placement.travel && travelPolicy ? { ...placement.travel, freeWithinKm: travelPolicy.freeWithinKm } : null;
+  const workCountry = place ? (input.placeCountry ?? null) : partner.country;
 
   const kit = kitRows.map((k) => ({ partId: k.part_id, name: k.name, quantity: Number(k.quantity), unitPriceMinor: Number(k.unit_price_minor) }));
   return {

@@ -13,8 +13,8 @@ import {
   greatCircleDistanceM,
   MEAN_EARTH_RADIUS_M,
   MAX_SEARCH_RADIUS_KM,
+  placeJob,
   SEARCH_SLOT_DAYS,
-  travelFeeForDistance,
   vehicleClassOf,
   type Currency,
   type GeoPoint,
@@ -30,7 +30,7 @@ import { LATITUDE_BANDS_PER_DEGREE, latitudeBands } from '../lib/sql-geo';
 import { lowerBound } from '../lib/sorted';
 import { recordGap } from './coverage.service';
 import { searchCatalogue } from './search-catalogue';
-import { searchIndexFor, type IndexedOffer, type LogState, type SearchIndexCheck, type SearchIndexSnapshot } from './search-index';
+import { searchIndexFor, type IndexedOffer, type IndexedPartner, type LogState, type SearchIndexCheck, type SearchIndexSnapshot } from './search-index';
 import { firstSlots, type FirstSlot, type SlotJob } from './slots.service';
 import { occupiedTimesWith, slotWindow } from './occupied-times';
 
@@ -40,8 +40,6 @@ const SEARCH_ATTEMPTS = 3;
 
 /** A partner in reach that offers the service type and holds every required capability. */
 interface Candidate {
-  /** Great-circle distance from the base to the place, km. */
-  straightKm: number;
   partnerId: string;
   name: string;
   city: string | null;
@@ -53,7 +51,7 @@ interface Candidate {
   labourMinor: number;
   partsMinor: number;
   offerMinutes: number;
-  policy: { freeWithinKm: number; ratePerKmMinor: number; maxDistanceKm: number; currency: Currency } | null;
+  travelPolicy: IndexedPartner['policy'];
   technicians: IndexedOffer['technicians'];
 }
 
@@ -84,20 +82,19 @@ const vehicleOf = (q: SearchQuery): VehicleProfile => ({
 });
 
 /**
- * Where a candidate would do the job, or null when it cannot. A mobile job needs the place inside
- * the partner's radius, a travel policy in the offer's currency and the road distance within the
- * policy's reach; a workshop job needs the base within the owner's radius. "any" prefers the job
- * at the owner's place when the partner can come.
+ * Where a candidate would do the job, or null when it cannot: the domain's placeJob decides for
+ * each place of work; the owner's radius is the owner's filter on the drive to a workshop. "any"
+ * prefers the job at the owner's place when the partner can come.
  */
-function placeJob(c: Candidate, place: GeoPoint, mode: SearchQuery['mode'], ownerRadiusKm: number): Placement | null {
-  const straightKm = c.straightKm;
-  let owner: Placement | null = null;
-  if (mode !== 'workshop' && (c.mode === 'mobile' || c.mode === 'both') && c.radiusKm !== null && straightKm <= c.radiusKm && c.policy && c.policy.currency === c.currency) {
-    const fee = travelFeeForDistance(c.policy, straightKm);
-    if (fee.withinReach) owner = { jobAt: 'owner', distanceKm: straightKm, travelFeeMinor: fee.feeMinor };
+function placementOf(c: Candidate, place: GeoPoint, mode: SearchQuery['mode'], ownerRadiusKm: number): Placement | null {
+  if (mode !== 'workshop') {
+    const owner = placeJob(c, place, 'owner', c.currency);
+    if (owner.possible) return { jobAt: 'owner', distanceKm: owner.distanceKm, travelFeeMinor: owner.travelFeeMinor };
   }
-  if (owner) return owner;
-  if (mode !== 'mobile' && (c.mode === 'workshop' || c.mode === 'both') && straightKm <= ownerRadiusKm) return { jobAt: 'workshop', distanceKm: straightKm, travelFeeMinor: 0 };
+  if (mode !== 'mobile') {
+    const workshop = placeJob(c, place, 'workshop', c.currency);
+    if (workshop.possible && workshop.distanceKm <= ownerRadiusKm) return { jobAt: 'workshop', distanceKm: workshop.distanceKm, travelFeeMinor: 0 };
+  }
   return null;
 }
 
@@ -107,7 +104,8 @@ const roundKm = (km: number) => Math.round(km * 10) / 10;
  * Approved partners that offer the service type, hold every one of `capabilityIds`, have their
  * base inside the box of MAX_SEARCH_RADIUS_KM around the place (from the index's latitude bands)
  * and are within reach of it in some mode: the place inside their radius, or their workshop
- * inside the owner's. Fee, travel reach and the owner's mode are decided afterwards (placeJob).
+ * inside the owner's: a pre-filter, as km ≤ radius holds whenever placeJob's metres ≤ radius × 1000 do.
+ * Fee, travel reach and the owner's mode are decided afterwards (placementOf).
  */
 export function candidatesOf(index: SearchIndexSnapshot, serviceTypeId: number, capabilityIds: number[], place: GeoPoint, ownerRadiusKm: number): Candidate[] {
   const bands = index.byService.get(serviceTypeId);
@@ -138,7 +136,6 @@ export function candidatesOf(index: SearchIndexSnapshot, serviceTypeId: number, 
         if (!holdsAll) continue;
         const offer = p.offers.get(serviceTypeId)!;
         candidates.push({
-          straightKm,
           partnerId: p.partnerId,
           name: p.name,
           city: p.city,
@@ -150,7 +147,7 @@ export function candidatesOf(index: SearchIndexSnapshot, serviceTypeId: number, 
           labourMinor: offer.labourMinor,
           partsMinor: offer.partsMinor,
           offerMinutes: offer.offerMinutes,
-          policy: p.policy,
+          travelPolicy: p.policy,
           technicians: offer.technicians,
         });
       }
@@ -246,10 +243,10 @@ export async function search(ctx: ServiceContext, q: SearchQuery, now: Date): Pr
     const covering = new Set<string>();
     let matches: Match[] = [];
     for (const c of candidates) {
-      const anywhere = placeJob(c, place, 'any', q.radiusKm);
+      const anywhere = placementOf(c, place, 'any', q.radiusKm);
       if (!anywhere) continue;
       covering.add(c.partnerId);
-      const placement = q.mode === 'any' ? anywhere : placeJob(c, place, q.mode, q.radiusKm);
+      const placement = q.mode === 'any' ? anywhere : placementOf(c, place, q.mode, q.radiusKm);
       if (!placement) continue;
       const totalMinor = c.labourMinor + c.partsMinor + placement.travelFeeMinor;
       if (q.maxPriceMinor !== undefined && (c.currency !== q.currency || totalMinor > q.maxPriceMinor)) continue;

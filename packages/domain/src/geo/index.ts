@@ -2,3 +2,4 @@
 export * from './distance';
 export * from './travel';
 export * from './travel-fee';
+export * from './job-placement';
