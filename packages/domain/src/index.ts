@@ -1,6 +1,7 @@
 // Public surface of the pure domain package: schemas and computations, no I/O.
 export * from './errors';
 export * from './schemas/problem';
+export * from './schemas/field-errors';
 export * from './schemas/query';
 export * from './schemas/catalogue';
 export * from './schemas/health';
@@ -14,6 +15,7 @@ export * from './slots';
 export * from './schemas/hours';
 export * from './schemas/offers';
 export * from './vetting/insurance';
+export * from './vetting/application-completeness';
 export * from './schemas/eligibility';
 export * from './eligibility';
 export * from './schemas/search';

@@ -6,11 +6,10 @@ import type { OpenAPIRegistry, RouteConfig } from '@asteasolutions/zod-to-openap
 type RouteParameter = NonNullable<RouteConfig['request']>['query'];
 type RequestBody = NonNullable<RouteConfig['request']>['body'];
 import { z } from 'zod';
-import { ProblemDetailsSchema, type FieldError } from '@emberline/domain';
+import { ProblemDetailsSchema, toFieldErrors, type FieldError } from '@emberline/domain';
 import type { Role } from '@emberline/domain';
 import { HttpError, PayloadTooLarge, UnsupportedMediaType, ValidationFailed } from './errors';
 import { ANONYMOUS, type Actor } from './context';
-import { toFieldErrors } from './field-errors';
 import type { Guards } from '../middleware/auth';
 
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';

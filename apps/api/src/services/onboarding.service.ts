@@ -5,10 +5,10 @@ import { fileTypeFromBuffer } from 'file-type';
 import { In, IsNull, type EntityManager } from 'typeorm';
 import type { z } from 'zod';
 import {
+  applicationMissing,
   AreaStepSchema,
   BusinessStepSchema,
   EDITABLE_STATUSES,
-  REQUIRED_DOCUMENTS,
   UPLOAD_TYPES,
   type Application,
   type CapabilitiesStep,
@@ -17,7 +17,6 @@ import {
   type OrganisationStatus,
   type PartnerDocument,
 } from '@emberline/domain';
-import { toFieldErrors } from '../lib/field-errors';
 import { CapabilityEntity, OrganisationCapabilityEntity, OrganisationEntity, PartnerDocumentEntity, PartnerProfileEntity } from '../entities';
 import type { ServiceContext } from '../lib/context';
 import { createError, NotFound, ValidationFailed } from '../lib/errors';
@@ -96,35 +95,6 @@ function areaOf(p: PartnerProfileEntity | null): Application['area'] {
   return { baseLabel: p.baseLabel ?? '', baseLat: p.baseLat, baseLng: p.baseLng, mode: p.mode, radiusKm: p.radiusKm, workshopAddress: p.workshopAddress };
 }
 
-/** What still stops the application from being submitted, as field errors. */
-function missingOf(app: Pick<Application, 'business' | 'area' | 'capabilities' | 'documents'>, retiredClaims: string[], today: string): FieldError[] {
-  const missing: FieldError[] = [];
-  if (!app.business) missing.push({ path: 'business', message: 'Enter your business details' });
-  else {
-    const check = BusinessStepSchema.safeParse({ ...app.business, vatId: app.business.vatId ?? '' });
-    if (!check.success) missing.push(...toFieldErrors(check.error, 'business'));
-  }
-  if (!app.area) missing.push({ path: 'area', message: 'Set your base and service area' });
-  else {
-    const check = AreaStepSchema.safeParse(app.area);
-    if (!check.success) missing.push(...toFieldErrors(check.error, 'area'));
-  }
-  if (app.capabilities.length === retiredClaims.length) missing.push({ path: 'capabilities', message: 'Pick at least one piece of equipment or skill' });
-  for (const code of retiredClaims) missing.push({ path: 'capabilities', message: `"${code}" is no longer in the catalogue: remove it` });
-  for (const kind of REQUIRED_DOCUMENTS) {
-    const docs = app.documents.filter((d) => d.kind === kind);
-    if (kind === 'insurance') {
-      if (!docs.length) missing.push({ path: 'documents.insurance', message: 'Upload your liability insurance certificate' });
-      else if (!docs.some((d) => d.expiresOn !== null && d.expiresOn > today)) {
-        missing.push({ path: 'documents.insurance', message: 'Your insurance certificate has expired: upload the renewed one' });
-      }
-    } else if (!docs.length) {
-      missing.push({ path: `documents.${kind}`, message: 'Upload your business registration extract' });
-    }
-  }
-  return missing;
-}
-
 /** The whole application of one organisation as the partner (and the reviewing admin) sees it. */
 export async function buildApplication(manager: EntityManager, organisationId: string, today: string): Promise<Application> {
   const org = await manager.getRepository(OrganisationEntity).findOneBy({ id: organisationId });
@@ -149,7 +119,7 @@ export async function buildApplication(manager: EntityManager, organisationId: s
       profile?.changeRequestMessage != null && profile.changeRequestedAt
         ? { message: profile.changeRequestMessage, fields: profile.changeRequestFields ?? {}, requestedAt: profile.changeRequestedAt.toISOString() }
         : null,
-    missing: missingOf(parts, retired, today),
+    missing: applicationMissing(parts, retired, today),
     submittedAt: profile?.submittedAt?.toISOString() ?? null,
     editable: isEditable(org.status),
   };

@@ -80,3 +80,24 @@ export function checkJobStart(start: Date | string, timeZone: string, windowMinu
   if (now.getTime() >= w.until.getTime()) return { allowed: false, reason: 'day-over', ...w };
   return { allowed: true };
 }
+
+/** Statuses in which an appointment may still be moved, by the owner or the partner. */
+export const MOVABLE_STATUSES: readonly BookingStatus[] = Object.freeze(['requested', 'confirmed']);
+
+export type OwnerRescheduleCheck = { allowed: true } | { allowed: false; reason: 'status' | 'too-late'; hoursLeft: number };
+
+/**
+ * Whether the owner may move a booking at `now`: while it is requested or confirmed, and only
+ * while cancelling it would still be free (the same boundary as ownerCancellation: at least
+ * `freeUntilHours` before the start, and never once it has begun), so moving never dodges the fee.
+ */
+export function ownerReschedule(status: BookingStatus, start: Date | string, freeUntilHours: number, now: Date): OwnerRescheduleCheck {
+  const startMs = typeof start === 'string' ? Date.parse(start) : start.getTime();
+  if (!Number.isFinite(startMs)) throw new DomainInputError(`Cannot read the start ${String(start)}`);
+  if (!Number.isInteger(freeUntilHours) || freeUntilHours < 0) throw new DomainInputError(`Free cancellation of ${freeUntilHours} hours is not a whole number of hours ≥ 0`);
+  const leftMs = startMs - now.getTime();
+  const hoursLeft = leftMs / 3_600_000;
+  if (!MOVABLE_STATUSES.includes(status)) return { allowed: false, reason: 'status', hoursLeft };
+  if (leftMs <= 0 || leftMs < freeUntilHours * 3_600_000) return { allowed: false, reason: 'too-late', hoursLeft };
+  return { allowed: true };
+}

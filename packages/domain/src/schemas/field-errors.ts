@@ -1,7 +1,6 @@
-// Zod issues as the field errors of a 422 problem detail: used by the route layer and by services
-// that check stored data against a schema (so services need not import the HTTP layer).
+// Zod issues as the field errors of a 422 problem detail: the route layer's request checks and the domain's completeness checks share them.
 import type { z } from 'zod';
-import type { FieldError } from '@emberline/domain';
+import type { FieldError } from './problem';
 
 export function toFieldErrors(error: z.ZodError, prefix?: string): FieldError[] {
   return error.issues.map((issue) => ({
