@@ -5,6 +5,8 @@ import { randomInt } from 'node:crypto';
 import { z } from 'zod';
 import {
   HOLD_MINUTES,
+  MOVABLE_STATUSES,
+  ownerReschedule,
   seesAllOrganisationBookings,
   type Booking,
   type BookingDecision,
@@ -296,12 +298,12 @@ export async function cancelByOwner(ctx: BookingContext, id: string, reason: str
 /** The owner moves a requested or confirmed booking, while cancelling would still be free. */
 export async function rescheduleByOwner(ctx: BookingContext, id: string, start: string): Promise<Booking> {
   const row = await findBookingRow(ctx.manager, id, ownerScope(ctx), true);
-  if (row.status !== 'requested' && row.status !== 'confirmed') throw BookingStateConflict(`Booking ${row.reference} can be moved only while it is requested or confirmed.`);
   const freeHours = quoteOf(row).cancellation.freeUntilHours;
-  const hoursLeft = (new Date(row.start_at).getTime() - ctx.now.getTime()) / 3_600_000;
-  if (hoursLeft < freeHours) {
+  const may = ownerReschedule(row.status, row.start_at, freeHours, ctx.now);
+  if (!may.allowed && may.reason === 'status') throw BookingStateConflict(`Booking ${row.reference} can be moved only while it is requested or confirmed.`);
+  if (!may.allowed) {
     throw RescheduleClosed(
-      `A booking can be moved until ${freeHours} hours before its start; this one starts in ${Math.max(0, Math.floor(hoursLeft))} hours. You can still cancel it under the partner's policy, or call the partner.`,
+      `A booking can be moved until ${freeHours} hours before its start; this one starts in ${Math.max(0, Math.floor(may.hoursLeft))} hours. You can still cancel it under the partner's policy, or call the partner.`,
     );
   }
   return one(ctx, await moveBooking(ctx, row, new Date(start), [row.technician_user_id], 'owner'), 'owner', ctx.now);
@@ -536,7 +538,7 @@ export async function decide(ctx: BookingContext, id: string, d: BookingDecision
       after = await transition(ctx, id, 'cancelled_by_partner', 'partner', d.reason, { set: await releaseHold(ctx, row) });
       break;
     case 'reschedule': {
-      if (row.status !== 'requested' && row.status !== 'confirmed') throw BookingStateConflict(`Booking ${row.reference} can be moved only while it is requested or confirmed.`);
+      if (!MOVABLE_STATUSES.includes(row.status)) throw BookingStateConflict(`Booking ${row.reference} can be moved only while it is requested or confirmed.`);
       let technicianIds = [row.technician_user_id];
       if (d.technicianId) {
         const team = row.offer_id ? ((await offerTechnicians(ctx.manager, [row.offer_id])).get(row.offer_id) ?? []) : [];
