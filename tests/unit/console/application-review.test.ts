@@ -103,13 +103,28 @@ describe('Application review', () => {
     });
   });
 
+  it('shows only the error, not the confirmation, when the message is missing; the confirmation opens once it is written', async () => {
+    const wrapper = await mountReview('in_review');
+    await wrapper.find('[data-decision="request_changes"] input').setValue(true);
+    await wrapper.find('[data-testid="send-decision"]').trigger('click');
+    await flushPromises();
+    expect(wrapper.text()).toContain('Tell the partner why');
+    // the confirmation is drawn on first opening: none at all means it never opened
+    const confirmations = () => document.body.querySelectorAll('.ant-popconfirm');
+    expect(confirmations()).toHaveLength(0);
+    await wrapper.find('[data-testid="decision-message"]').setValue('Please add the VAT ID.');
+    await wrapper.find('[data-testid="send-decision"]').trigger('click');
+    await flushPromises();
+    expect(confirmations()).toHaveLength(1);
+  });
+
   it('refuses a rejection without a reason', async () => {
     const wrapper = await mountReview('submitted');
     await wrapper.find('[data-decision="reject"] input').setValue(true);
     await wrapper.find('[data-testid="send-decision"]').trigger('click');
     await flushPromises();
-    document.body.querySelector<HTMLButtonElement>('.ant-popconfirm .ant-btn-primary')!.click();
-    await flushPromises();
+    // nothing to confirm: the error alone is shown
+    expect(document.body.querySelector('.ant-popconfirm')).toBeNull();
     expect(decide).not.toHaveBeenCalled();
     expect(wrapper.text()).toContain('Tell the partner why');
   });
