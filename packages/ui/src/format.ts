@@ -1,4 +1,5 @@
 // The one place numbers, durations, money and dates become text: Intl only, no concatenation.
+import { currencyExponent, toMajorString } from '@emberline/domain';
 
 /** Our message locales mapped to the Intl locale used for formatting. */
 const INTL_LOCALES: Record<string, string> = { en: 'en-GB', de: 'de-DE' };
@@ -27,16 +28,12 @@ export function formatDuration(minutes: number, locale: string): string {
 
 /**
  * Money arrives as integer minor units plus an ISO 4217 code. `minorUnits` is the number of
- * decimal places of that currency (2 for EUR, 0 for JPY); it travels with the amount rather
- * than being guessed here. The amount is handed to Intl as an exact decimal string, never a float.
+ * decimal places of that currency (2 for EUR, 0 for JPY); a stored amount that carries its own
+ * passes it, otherwise ISO 4217's comes from the domain. The domain's `toMajorString` hands Intl
+ * an exact decimal string, never a float.
  */
-export function formatMoney(amountMinor: number | bigint, currency: string, locale: string, minorUnits = 2): string {
-  const minor = BigInt(amountMinor);
-  const negative = minor < 0n;
-  const digits = (negative ? -minor : minor).toString().padStart(minorUnits + 1, '0');
-  const whole = digits.slice(0, digits.length - minorUnits);
-  const fraction = digits.slice(digits.length - minorUnits);
-  const decimal = `${negative ? '-' : ''}${whole}${minorUnits > 0 ? `.${fraction}` : ''}`;
+export function formatMoney(amountMinor: number | bigint, currency: string, locale: string, minorUnits = currencyExponent(currency)): string {
+  const decimal = toMajorString(amountMinor, currency, minorUnits);
   const formatter = new Intl.NumberFormat(toIntlLocale(locale), {
     style: 'currency',
     currency,

@@ -386,6 +386,23 @@ describe('Directory search', () => {
     expect(lastRequest()).toMatchObject({ sort: 'price', mode: 'mobile', maxPriceMinor: 30_000, currency: 'EUR' });
   });
 
+  it('reads the maximum price to the cent and refuses part of a cent rather than round it', async () => {
+    vi.mocked(searchPartners).mockResolvedValue(response([result({}), workshop]));
+    const wrapper = await mountSearch({ ...INNSBRUCK_QUERY, service: 'seasonal-heater-service' });
+    const price = wrapper.find('input#search-max-price');
+    await price.setValue('10.005');
+    await price.trigger('change');
+    await flushPromises();
+    // Math.round(10.005 * 100) is 1001 (10.005 × 100 is 1000.5000000000001): a limit the owner did not type
+    expect(router.currentRoute.value.query.maxPriceMinor).toBeUndefined();
+    expect(wrapper.text()).toContain('Enter an amount such as 250 or 250.50.');
+    await price.setValue('19.99');
+    await price.trigger('change');
+    await flushPromises();
+    expect(router.currentRoute.value.query).toMatchObject({ maxPriceMinor: '1999', currency: 'EUR' });
+    expect((wrapper.find('input#search-max-price').element as HTMLInputElement).value).toBe('19.99');
+  });
+
   it('when nobody matches: nearest partners outside, a wider radius and the coverage alert with its errors', async () => {
     vi.mocked(searchPartners).mockResolvedValue(
       response([], {

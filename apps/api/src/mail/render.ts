@@ -1,4 +1,5 @@
 // Renders an e-mail from the message catalogue into a plain-text and an HTML part.
+import { currencyExponent, toMajorString } from '@emberline/domain';
 import en, { type MailMessages, type TemplateMessages } from './messages/en';
 import de from './messages/de';
 
@@ -112,9 +113,9 @@ const isMoney = (v: unknown): v is MailMoney => typeof v === 'object' && v !== n
 const isWhen = (v: unknown): v is MailWhen => typeof v === 'object' && v !== null && typeof (v as MailWhen).at === 'string' && typeof (v as MailWhen).timeZone === 'string';
 
 function formatMoney(locale: MailLocale, m: MailMoney): string {
-  const format = new Intl.NumberFormat(locale, { style: 'currency', currency: m.currency });
-  // the currency's minor unit as Intl knows it (ISO 4217: 2 for every currency we price in)
-  return format.format(m.minor / 10 ** (format.resolvedOptions().maximumFractionDigits ?? 2));
+  const digits = currencyExponent(m.currency);
+  const format = new Intl.NumberFormat(locale, { style: 'currency', currency: m.currency, minimumFractionDigits: digits, maximumFractionDigits: digits });
+  return format.format(toMajorString(m.minor, m.currency) as Intl.StringNumericLiteral);
 }
 
 function formatWhen(locale: MailLocale, w: MailWhen): string {

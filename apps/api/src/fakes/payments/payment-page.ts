@@ -1,5 +1,6 @@
 // The fake's own payment page: a plain, accessible form that says clearly it is a local test page
 // and takes only the documented test card numbers. Its look is Emberline's neutral one.
+import { currencyExponent, toMajorString } from '@emberline/domain';
 import { groupCardNumber, TEST_CARDS } from './test-cards';
 import type { WireObject } from './store';
 
@@ -8,9 +9,10 @@ const escape = (s: string) =>
 
 /** Minor units as money, e.g. 12345 eur → "€123.45"; the exponent comes from the currency. */
 export function formatMinor(amount: number, currency: string): string {
-  const format = new Intl.NumberFormat('en-GB', { style: 'currency', currency: currency.toUpperCase() });
-  const digits = format.resolvedOptions().maximumFractionDigits ?? 2;
-  return format.format(amount / 10 ** digits);
+  const code = currency.toUpperCase();
+  const digits = currencyExponent(code);
+  const format = new Intl.NumberFormat('en-GB', { style: 'currency', currency: code, minimumFractionDigits: digits, maximumFractionDigits: digits });
+  return format.format(toMajorString(amount, code) as Intl.StringNumericLiteral);
 }
 
 export interface PageState {
