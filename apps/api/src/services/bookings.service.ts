@@ -8,6 +8,7 @@ import {
   MOVABLE_STATUSES,
   ownerReschedule,
   seesAllOrganisationBookings,
+  toMajorString,
   type Booking,
   type BookingDecision,
   type BookingListQuerySchema,
@@ -420,8 +421,6 @@ function csvField(value: string | number | null): string {
   return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }
 
-const decimal = (minorUnits: number, units: number) => (minorUnits / 10 ** units).toFixed(units);
-
 export const CSV_HEADER = [
   'reference',
   'status',
@@ -457,6 +456,7 @@ export async function exportOrgBookings(ctx: ServiceContext, q: Omit<BookingList
   const lines = [CSV_HEADER.join(',')];
   for (const r of rows) {
     const quote = quoteOf(r);
+    const major = (amountMinor: number) => toMajorString(amountMinor, quote.currency, quote.minorUnits);
     const customer = customerOf(r);
     const address = addressOf(r);
     const start = new Date(r.start_at);
@@ -480,13 +480,13 @@ export async function exportOrgBookings(ctx: ServiceContext, q: Omit<BookingList
         r.job_at,
         address ? `${address.line}, ${address.postalCode} ${address.city}, ${address.country}` : r.workshop_address,
         quote.currency,
-        decimal(quote.netMinor, quote.minorUnits),
-        decimal(quote.vatMinor, quote.minorUnits),
-        decimal(quote.grossMinor, quote.minorUnits),
+        major(quote.netMinor),
+        major(quote.vatMinor),
+        major(quote.grossMinor),
         r.payment_status,
-        decimal(minor(r.authorised_minor), quote.minorUnits),
-        decimal(minor(r.captured_minor), quote.minorUnits),
-        decimal(minor(r.refunded_minor), quote.minorUnits),
+        major(minor(r.authorised_minor)),
+        major(minor(r.captured_minor)),
+        major(minor(r.refunded_minor)),
         new Date(r.created_at).toISOString(),
       ]
         .map(csvField)
