@@ -1,7 +1,7 @@
 // The vetting journey in the browser with real file uploads: a partner applies, a network admin
 // requests changes with a note beside a field, the partner fixes it and resubmits, the admin
 // approves, and the organisation appears in the public partner list the Directory reads.
-import { mkdirSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, expect, it } from 'vitest';
@@ -93,6 +93,15 @@ it('a partner applies, the admin requests changes, the partner resubmits, the ad
   await a.page.locator('.leaflet-container').first().waitFor();
   await screenshot(a.page, 'console-application-review-1440');
   await expectAccessible(a.page, 'application review');
+  // the partner's papers can be read in the page (a PDF from an object URL the CSP allows) and saved
+  const paper = a.page.getByTestId('document-card').filter({ hasText: 'insurance.pdf' });
+  await paper.getByRole('button', { name: 'Show PDF' }).click();
+  await paper.locator('iframe').waitFor();
+  const [saved] = await Promise.all([a.page.waitForEvent('download'), paper.getByRole('button', { name: 'Download insurance.pdf' }).click()]);
+  expect(saved.suggestedFilename()).toBe('insurance.pdf');
+  const savedBytes = readFileSync((await saved.path())!);
+  expect(savedBytes.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+  await screenshot(a.page, 'console-application-document-1440');
   await a.page.locator('[data-decision="request_changes"]').click();
   await a.page.getByLabel('Message to the partner').fill('Please give a phone number that reaches the workshop.');
   await a.page.getByRole('button', { name: 'Add a note' }).click();

@@ -77,6 +77,8 @@ export function createApp(deps: AppDeps): EmberlineApp {
         directives: {
           'img-src': ["'self'", 'data:', 'blob:'],
           'connect-src': ["'self'"],
+          // the Console shows a partner's PDF papers from an object URL (fetched with the bearer token)
+          'frame-src': ["'self'", 'blob:'],
           // No stylesheet comes from elsewhere, so no https:. 'unsafe-inline' stays: ant-design-vue's CSS-in-JS
           // injects <style> elements, which 'self' alone blocks (the Console loses its styles), and in 4.2 its
           // component style hooks never pass ConfigProvider's `csp` nonce on; the styles depend on the theme, so
