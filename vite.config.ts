@@ -5,6 +5,7 @@ import path from 'node:path';
 import { type Plugin } from 'vite';
 import { defineConfig } from 'vitest/config';
 import vue from '@vitejs/plugin-vue';
+import { precompressDir } from './scripts/lib/precompress';
 
 const root = path.dirname(fileURLToPath(import.meta.url));
 const apiTarget = process.env.EMBERLINE_API_URL ?? `http://127.0.0.1:${process.env.PORT ?? '4000'}`;
@@ -39,9 +40,28 @@ function consoleFallback(): Plugin {
   };
 }
 
+/** After the build, brotli and gzip copies beside each text file, which the API serves as they are. */
+function precompress(): Plugin {
+  let outDir = '';
+  let log = (message: string) => console.log(message);
+  return {
+    name: 'emberline-precompress',
+    apply: 'build',
+    configResolved(config) {
+      outDir = path.resolve(config.root, config.build.outDir);
+      log = (message) => config.logger.info(message);
+    },
+    async closeBundle() {
+      const r = await precompressDir(outDir);
+      const kB = (n: number) => `${(n / 1024).toFixed(0)} kB`;
+      log(`precompressed ${r.files} files: ${kB(r.bytes)} → brotli ${kB(r.brotliBytes)}, gzip ${kB(r.gzipBytes)}`);
+    },
+  };
+}
+
 export default defineConfig({
   root,
-  plugins: [perAppAlias(), vue(), consoleFallback()],
+  plugins: [perAppAlias(), vue(), consoleFallback(), precompress()],
   resolve: {
     // vue-leaflet (with useGlobalLeaflet=false) loads Leaflet's ES build, but still names plain
     // "leaflet" for its global mode; pointing both at the ES build keeps one Leaflet chunk.

@@ -3,6 +3,7 @@
 import { randomUUID } from 'node:crypto';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
+import compression from 'compression';
 import cookieParser from 'cookie-parser';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
@@ -13,6 +14,7 @@ import { useMailSecretKey } from './mail/secret-data';
 import { useMailSender } from './mail/sender';
 import { ApiRouter } from './lib/api-router';
 import { apiNotFound, problemDetails } from './middleware/problem-details';
+import { precompressedStatic, sendPage } from './middleware/precompressed-static';
 import { createGuards } from './middleware/auth';
 import { createLimiters } from './middleware/rate-limits';
 import { createStorage } from './storage';
@@ -53,12 +55,13 @@ function serveApps(app: Express, appsDir: string): void {
   const notFound: express.RequestHandler = (_req, res) => {
     res.status(404).type('text/plain').send('Not found');
   };
-  app.use('/assets', express.static(path.join(appsDir, 'assets'), { immutable: true, maxAge: '1y' }), notFound);
-  app.use(express.static(appsDir, { index: false, maxAge: '1h' }));
+  // hashed names change with their content, so a year is safe; the pages naming them are revalidated
+  app.use('/assets', precompressedStatic(path.join(appsDir, 'assets'), { immutable: true, maxAge: '1y' }), notFound);
+  app.use(precompressedStatic(appsDir, { maxAge: '1h' }));
   const spa = (file: string): express.RequestHandler => (req, res, next) => {
     if (req.method !== 'GET' && req.method !== 'HEAD') return next();
-    res.set('cache-control', 'no-cache').sendFile(file, (err) => {
-      if (err && !res.headersSent) notFound(req, res, next);
+    sendPage(req, res, file, () => {
+      if (!res.headersSent) notFound(req, res, next);
     });
   };
   app.get(/^\/console(\/.*)?$/, spa(consoleHtml));
@@ -149,7 +152,8 @@ export function createApp(deps: AppDeps): EmberlineApp {
   api.router.use(docsRouter(registry, deps.version));
   api.router.use(apiNotFound);
 
-  app.use('/api', api.router);
+  // JSON answers compress well (the OpenAPI document to about a tenth); the API streams no events that a buffer would hold up
+  app.use('/api', compression(), api.router);
   if (deps.config.SERVE_APPS) serveApps(app, deps.config.APPS_DIR);
   app.use(problemDetails);
   return app;
