@@ -59,6 +59,23 @@ describe('ZoneClock offsets from the shared year tables', () => {
     expect(clock.nextChangeAfter(Date.UTC(2026, 11, 30))).toBe(Number.POSITIVE_INFINITY);
   });
 
+  it('reads a wall-clock time in a gap as the instant of the jump, inside the span and outside it (Berlin 2026-03-29, Apia 2011-12-30; IANA tz database via Intl, Node 20)', () => {
+    const jump = Date.UTC(2026, 2, 29, 1);
+    const wall = (h: number, m: number) => Date.UTC(2026, 2, 29, h, m);
+    const inside = new ZoneClock('Europe/Berlin', Date.UTC(2026, 2, 27), Date.UTC(2026, 2, 31));
+    // outside the span the offsets come from luxon and the jump is found by bisection
+    const outside = new ZoneClock('Europe/Berlin', Date.UTC(2026, 4, 1), Date.UTC(2026, 4, 3));
+    for (const clock of [inside, outside]) {
+      expect([wall(2, 0), wall(2, 5), wall(2, 30), wall(2, 55)].map((w) => clock.toInstant(w))).toEqual([jump, jump, jump, jump]);
+      expect(clock.toInstant(wall(1, 55))).toBe(jump - 5 * 60_000);
+      expect(clock.toInstant(wall(3, 0))).toBe(jump);
+    }
+    const apia = new ZoneClock('Pacific/Apia', Date.UTC(2011, 11, 28), Date.UTC(2012, 0, 2));
+    const skipped = Date.UTC(2011, 11, 30, 10);
+    expect([0, 9, 23].map((h) => apia.toInstant(Date.UTC(2011, 11, 30, h)))).toEqual([skipped, skipped, skipped]);
+    expect(apia.toInstant(Date.UTC(2011, 11, 31))).toBe(skipped);
+  });
+
   it('refuses an unknown zone', () => {
     expect(() => new ZoneClock('Mars/Olympus', 0, DAY)).toThrow(/unknown time zone/);
   });
