@@ -214,6 +214,20 @@ describe('Services and prices', { timeout: 30_000 }, () => {
     expect(member.find<HTMLButtonElement>('[data-testid="booking-settings"] button[role="switch"]').element.disabled).toBe(true);
   });
 
+  it('words cancellation without a fee the same in the table and the form: free until the start, not at any time', async () => {
+    vi.mocked(listOffers).mockResolvedValue([{ ...kitOffer, cancellation: { freeUntilHours: 24, feeMinor: 0 } }]);
+    const wrapper = await mountPage();
+    const cells = wrapper.findAll('tbody tr.ant-table-row td').map((td) => td.text());
+    expect(cells[6]).toBe('Free until the start');
+    expect(wrapper.text()).not.toContain('any time');
+    await wrapper.find('[data-testid="edit-offer"]').trigger('click');
+    await flushPromises();
+    expect($('[data-testid="cancellation-words"]').text()).toBe('Owners read: Free until the start.');
+    await typeNumber('#offer_cancellationFee', '30');
+    await flushPromises();
+    expect($('[data-testid="cancellation-words"]').text()).toBe('Owners read: Free until 24 hours before the start, then €30.00.');
+  });
+
   it('asks for the price in words a person typing euros understands', async () => {
     const wrapper = await mountPage();
     await openCreate(wrapper);
