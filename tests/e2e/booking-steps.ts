@@ -71,16 +71,27 @@ export async function bookUpToPay(page: Page, partnerId: string, shots: string |
  * declined card answers 402) are left out of the page's problems, everything else stays.
  */
 export async function payWith(h: Harness, page: Page, problems: string[], card: string) {
-  const from = problems.length;
   await page.getByTestId('pay').click();
   // the payments provider's page: another origin
   await page.waitForURL((url) => url.origin !== h.baseUrl);
+  return payOnProviderPage(h, page, problems, card);
+}
+
+/** Fills in and sends the provider's card form (already open); answers the problems filter as payWith. */
+export async function payOnProviderPage(_h: Harness, page: Page, problems: string[], card: string) {
+  const from = problems.length;
   await page.getByLabel('Card number').fill(card);
   await page.getByLabel('Expiry date').fill('12/34');
   await page.getByLabel('Security code (CVC)').fill('123');
   await page.getByRole('button', { name: /^Pay / }).click();
-  return () => {
-    const mine = problems.slice(from).filter((p) => !/^console: Failed to load resource: the server responded with a status of (404|402)/.test(p));
-    problems.splice(from, problems.length - from, ...mine);
-  };
+  return () => ignoreProviderPageLoads(problems, from);
 }
+
+/** Leaves out the provider page's own failed loads (no favicon; 402 on a decline) logged since `from`. */
+export function ignoreProviderPageLoads(problems: string[], from: number): void {
+  const mine = problems.slice(from).filter((p) => !/^console: Failed to load resource: the server responded with a status of (404|402)/.test(p));
+  problems.splice(from, problems.length - from, ...mine);
+}
+
+/** The booking id in a Directory booking address (/bookings/:id, with or without a query). */
+export const bookingIdOf = (url: string) => new URL(url, 'http://x').pathname.split('/').at(-1)!;

@@ -1,11 +1,11 @@
 // Browser journeys for booking (issue #7) on the seeded demo network and the local payments fake:
 // Clara opens Glutwerk Mobil's profile, picks a free time, keeps her garage van, gives an address
 // in Innsbruck with the pin, reads the quote and pays on the test payment page, and comes back to
-// the confirmation and her bookings; then a declined card, which leaves nothing booked and the
-// time released. Desktop and phone screenshots, axe on each of our pages.
+// the confirmation and her bookings; then a declined card, which keeps the time held for another
+// card, and the way back from the payment page, which resumes her own hold. Desktop and phone screenshots, axe on each of our pages.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { TEST_CARD } from '../setup/payments';
-import { bookUpToPay, payWith } from './booking-steps';
+import { bookingIdOf, bookUpToPay, ignoreProviderPageLoads, payOnProviderPage, payWith } from './booking-steps';
 import { DESKTOP, expectAccessible, openPage, PHONE, screenshot, startHarness, type Harness } from './browser';
 
 let h: Harness;
@@ -76,31 +76,105 @@ describe('booking', () => {
     await context.close();
   });
 
-  it('a declined card books nothing and releases the time', { timeout: 150_000 }, async () => {
+  it('a declined card keeps the time held: the booking waits in her list and another card pays it', { timeout: 150_000 }, async () => {
     const { page, context, problems } = await openPage(h, PHONE);
     await bookUpToPay(page, partnerId, '390');
     expect(await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)).toBeLessThanOrEqual(0);
     const leftProviderPage = await payWith(h, page, problems, TEST_CARD.declined);
     await page.getByText(/Payment declined/).waitFor();
-    // the decline's webhook releases the booking; then the owner goes back from the payment page
+    // the decline's webhook keeps the hold; the owner looks at her bookings before trying again
     await h.payments.idle();
-    await page.getByRole('link', { name: 'go back to the shop', exact: true }).click();
-
-    await page.waitForURL(/\/bookings\/[0-9a-f-]+\?cancelled=1$/);
+    const id = bookingIdOf((await page.getByRole('link', { name: 'go back to the shop', exact: true }).getAttribute('href'))!);
+    await page.goto('/bookings');
     leftProviderPage();
+    await page.getByRole('heading', { level: 1, name: 'Your bookings' }).waitFor();
+    await page.locator(`[data-group="upcoming"] [data-booking="${id}"] [data-status="held"]`).waitFor();
+    await page.locator(`[data-booking="${id}"]`).click();
+
     await page.getByRole('heading', { level: 1, name: 'Your card was declined' }).waitFor();
-    expect(await page.locator('[data-testid="standing"] [data-status]').getAttribute('data-status')).toBe('released');
-    expect(await page.getByTestId('standing-text').textContent()).toContain('Nothing was charged and the time was released');
-    await page.getByTestId('try-again').waitFor();
+    expect(await page.locator('[data-testid="standing"] [data-status]').getAttribute('data-status')).toBe('held');
+    expect(await page.getByTestId('standing-text').textContent()).toMatch(/Nothing was charged\. The time is still held for you until \d{1,2}:\d{2}/);
     await screenshot(page, 'directory-booking-declined-390');
     await expectAccessible(page, 'declined payment');
 
-    // a released attempt is not among her bookings
-    const id = new URL(page.url()).pathname.split('/').at(-1)!;
+    // the same payment page takes another card
+    await page.getByTestId('finish-paying').click();
+    await page.waitForURL((url) => url.origin !== h.baseUrl);
+    const paid = await payOnProviderPage(h, page, problems, TEST_CARD.succeeds);
+    await page.waitForURL(new RegExp(`/bookings/${id}\\?paid=1$`));
+    paid();
+    await page.getByRole('heading', { level: 1, name: /Your booking is confirmed|waiting for Glutwerk Mobil to accept/ }).waitFor({ timeout: 30_000 });
+
+    expect(problems).toEqual([]);
+    await context.close();
+  });
+
+  it('after a decline, another card on the same payment page books the time and it is among her bookings', { timeout: 150_000 }, async () => {
+    const { page, context, problems } = await openPage(h, DESKTOP);
+    await bookUpToPay(page, partnerId, null);
+    const declined = await payWith(h, page, problems, TEST_CARD.declined);
+    await page.getByText(/Payment declined/).waitFor();
+    await h.payments.idle();
+    declined();
+    const paid = await payOnProviderPage(h, page, problems, TEST_CARD.succeeds);
+    await page.waitForURL(/\/bookings\/[0-9a-f-]+\?paid=1$/);
+    paid();
+    const id = bookingIdOf(page.url());
+    await page.getByRole('heading', { level: 1, name: /Your booking is confirmed|waiting for Glutwerk Mobil to accept/ }).waitFor({ timeout: 30_000 });
+    expect(await page.getByTestId('detail-payment').textContent()).toMatch(/held on your card/);
+    await screenshot(page, 'directory-booking-paid-after-decline-1440');
+
     await page.goto('/bookings');
     await page.getByRole('heading', { level: 1, name: 'Your bookings' }).waitFor();
-    await page.locator('[data-group="upcoming"]').waitFor();
-    expect(await page.locator(`[data-booking="${id}"]`).count()).toBe(0);
+    const status = await page.locator(`[data-group="upcoming"] [data-booking="${id}"] [data-status]`).getAttribute('data-status');
+    expect(['requested', 'confirmed']).toContain(status);
+
+    expect(problems).toEqual([]);
+    await context.close();
+  });
+
+  it('back from the payment page keeps everything entered and resumes her own hold: the same booking and payment page', { timeout: 150_000 }, async () => {
+    const { page, context, problems } = await openPage(h, DESKTOP);
+    await bookUpToPay(page, partnerId, null);
+    const back = () => page.getByRole('button', { name: 'Back', exact: true }).click();
+    await back();
+    await back();
+    await page.getByLabel('Phone').fill('+43 512 123456');
+    await page.getByTestId('details-continue').click();
+    await page.getByTestId('quote-continue').click();
+    const visit = problems.length;
+    await page.getByTestId('pay').click();
+    await page.waitForURL((url) => url.origin !== h.baseUrl);
+    const providerUrl = page.url();
+    // the provider's page links back to the booking it is for
+    const bookingOnPage = async () => bookingIdOf((await page.getByRole('link', { name: 'Cancel and go back to the shop' }).getAttribute('href'))!);
+    const first = await bookingOnPage();
+
+    await page.goBack();
+    await page.waitForURL((url) => url.origin === h.baseUrl && url.pathname === `/book/${partnerId}`);
+    ignoreProviderPageLoads(problems, visit);
+    // the pay step again, with what she entered
+    await page.getByTestId('book-pay').waitFor();
+    expect(await page.locator('.book-page__aside').textContent()).toContain('Anichstraße 7, 6020 Innsbruck, Austria');
+    await screenshot(page, 'directory-book-back-from-payment-1440');
+    await back();
+    await back();
+    expect(await page.getByLabel('Street and number').inputValue()).toBe('Anichstraße 7');
+    expect(await page.getByLabel('Phone').inputValue()).toBe('+43 512 123456');
+    expect(await page.getByTestId('vehicle-summary').textContent()).toContain('Korvan Cargo 4');
+    await page.getByTestId('details-continue').click();
+    await page.getByTestId('quote-continue').click();
+
+    const again = page.waitForResponse((r) => r.url().endsWith('/api/bookings') && r.request().method() === 'POST');
+    await page.getByTestId('pay').click();
+    expect((await again).status()).toBe(201);
+    await page.waitForURL((url) => url.origin !== h.baseUrl);
+    expect(page.url()).toBe(providerUrl);
+    expect(await bookingOnPage()).toBe(first);
+    const paid = await payOnProviderPage(h, page, problems, TEST_CARD.succeeds);
+    await page.waitForURL(new RegExp(`/bookings/${first}\\?paid=1$`));
+    paid();
+    await page.getByRole('heading', { level: 1, name: /Your booking is confirmed|waiting for Glutwerk Mobil to accept/ }).waitFor({ timeout: 30_000 });
 
     expect(problems).toEqual([]);
     await context.close();

@@ -1,6 +1,7 @@
 // What the owner enters in the booking flow, kept as typed (strings for optional numbers), and
 // the BookingRequest and quote query made from it. The draft survives the trip to the payment
-// page in this tab's sessionStorage, so "try again" after a decline does not start from scratch.
+// page in this tab's sessionStorage (per partner and offer), so coming back or "try again" after
+// a decline does not start from scratch.
 import { reactive } from 'vue';
 import type { BookingRequest, CLIMATE_CONTROLS, Country, FactoryHeater, HeaterFuel, Vehicle } from '@emberline/domain';
 import type { QuotePreviewRequest } from '@emberline/api-client';
@@ -173,20 +174,34 @@ export const QUOTE_FIELD_PATHS: Record<string, string> = {
 
 const STORAGE_KEY = 'emberline.booking-draft';
 
-export function saveDraft(partnerId: string, draft: BookingDraft): void {
+/** What the flow keeps for one partner's offer: the entries, and the start held for payment. */
+export interface SavedDraft {
+  draft: BookingDraft;
+  /** The start the owner held and went to pay for: coming back to it opens the pay step again. */
+  heldStart: string | null;
+}
+
+interface Stored extends SavedDraft {
+  partnerId: string;
+  serviceType: string;
+}
+
+export function saveDraft(offer: { partnerId: string; serviceType: string }, draft: BookingDraft, heldStart: string | null = null): void {
   try {
-    sessionStorage.setItem(STORAGE_KEY, JSON.stringify({ partnerId, draft }));
+    const stored: Stored = { partnerId: offer.partnerId, serviceType: offer.serviceType, draft, heldStart };
+    sessionStorage.setItem(STORAGE_KEY, JSON.stringify(stored));
   } catch {
     /* private mode or full storage: the draft is a convenience */
   }
 }
 
-export function loadDraft(partnerId: string): BookingDraft | null {
+export function loadDraft(offer: { partnerId: string; serviceType: string }): SavedDraft | null {
   try {
-    const saved = JSON.parse(sessionStorage.getItem(STORAGE_KEY) ?? 'null') as { partnerId: string; draft: BookingDraft } | null;
-    if (!saved || saved.partnerId !== partnerId) return null;
+    const saved = JSON.parse(sessionStorage.getItem(STORAGE_KEY) ?? 'null') as Partial<Stored> | null;
+    if (!saved?.draft || saved.partnerId !== offer.partnerId || saved.serviceType !== offer.serviceType) return null;
     const base = emptyDraft();
-    return { ...base, ...saved.draft, vehicle: { ...base.vehicle, ...saved.draft.vehicle }, address: { ...base.address, ...saved.draft.address } };
+    const draft = { ...base, ...saved.draft, vehicle: { ...base.vehicle, ...saved.draft.vehicle }, address: { ...base.address, ...saved.draft.address } };
+    return { draft, heldStart: typeof saved.heldStart === 'string' ? saved.heldStart : null };
   } catch {
     return null;
   }
