@@ -9,6 +9,7 @@ import { createLogger } from '../../apps/api/src/lib/logger';
 import { dbEnv } from '../../scripts/lib/project';
 import { GOOD_PASSWORD, uniqueEmail } from '../setup/accounts';
 import { TEST_JWT_SECRET } from '../setup/app';
+import { profilePath } from './booking-steps';
 import { DESKTOP, expectAccessible, openPage, PHONE, screenshot, startHarness, type Harness } from './browser';
 
 let h: Harness;
@@ -68,6 +69,40 @@ describe('owner', () => {
     // the link worked once; signed in, the header names the owner even after a reload
     await page.reload();
     await page.getByText('Ella Owner').first().waitFor();
+    expect(problems).toEqual([]);
+    await context.close();
+  });
+
+  it('signs up in the middle of booking, and the confirmation link lands back on the booking step', { timeout: 120_000 }, async () => {
+    const { page, context, problems } = await openPage(h, DESKTOP);
+    const partners = ((await (await fetch(`${h.baseUrl}/api/partners`)).json()) as { data: { id: string; tradingName: string }[] }).data;
+    const partnerId = partners.find((p) => p.tradingName === 'Glutwerk Mobil')!.id;
+    await page.goto(profilePath(partnerId));
+    await page.getByTestId('book-slot').first().click();
+    // "Book 10:00" asks a stranger to sign in; she has no account yet
+    await page.waitForURL((url) => url.pathname === '/sign-in' && !!url.searchParams.get('redirect')?.startsWith(`/book/${partnerId}?`));
+    const bookPath = new URL(page.url()).searchParams.get('redirect')!;
+    await page.getByRole('link', { name: 'Create an account' }).click();
+    await page.waitForURL((url) => url.pathname === '/sign-up' && url.searchParams.get('redirect') === bookPath);
+
+    const email = uniqueEmail('e2e-booker');
+    await page.getByLabel('Your name').fill('Nora Booker');
+    await page.getByLabel('E-mail address').fill(email);
+    await page.getByLabel('Password', { exact: true }).fill(GOOD_PASSWORD);
+    await page.getByRole('button', { name: 'Create account' }).click();
+    await page.getByText('Check your inbox').first().waitFor();
+
+    const link = new URL(linkIn(await mailTo(email, /confirm/i), '/verify-email'));
+    expect(link.searchParams.get('next')).toBe(bookPath);
+    await page.goto(link.toString());
+    // confirmed and signed in: back on the first step, with the time she chose
+    await page.waitForURL((url) => `${url.pathname}${url.search}` === bookPath);
+    await page.getByRole('heading', { level: 1, name: 'Book Seasonal heater service' }).waitFor();
+    await page.getByTestId('slot-local').waitFor();
+    await screenshot(page, 'directory-book-after-sign-up-1440');
+    await page.getByTestId('slot-continue').click();
+    await page.getByTestId('book-details').waitFor();
+
     expect(problems).toEqual([]);
     await context.close();
   });

@@ -2,11 +2,18 @@
 // meta.roles need a signed-in user holding one of them; signed-in users skip the guest pages.
 import type { RouteLocationRaw, Router } from 'vue-router';
 import { watch } from 'vue';
+import { isSafeReturnPath } from '@emberline/domain';
 import { useSessionStore } from '@/stores/session';
 
-/** A redirect target from the query, only if it is a path inside this app. */
+/** A redirect target from the query, only if it is a path inside this app (the rule the API checks too). */
 export function safeRedirect(value: unknown): string | null {
-  return typeof value === 'string' && value.startsWith('/') && !value.startsWith('//') ? value : null;
+  return isSafeReturnPath(value) ? value : null;
+}
+
+/** The query that carries a safe return address on to the next account page (none when unsafe). */
+export function returnQuery(value: unknown): { redirect?: string } {
+  const target = safeRedirect(value);
+  return target ? { redirect: target } : {};
 }
 
 function homeOf(session: ReturnType<typeof useSessionStore>): RouteLocationRaw {
