@@ -23,3 +23,4 @@ export * from './search';
 export * from './money/units';
 export * from './quote';
 export * from './schemas/bookings';
+export * from './bookings/workload';
