@@ -79,6 +79,9 @@ describe('what an upload must be', () => {
     expect(past.body.errors).toEqual([{ path: 'expiresOn', message: 'The expiry date must be in the future' }]);
     expect(paths(await upload(t.app, admin, orgId, { kind: 'insurance', expiresOn: isoDay(0) }, file).expect(400))).toEqual(['expiresOn']);
     expect(paths(await upload(t.app, admin, orgId, { kind: 'insurance' }, file).expect(400))).toEqual(['expiresOn']);
+    // a certificate "valid until 31 Dec 9999" is a typing slip, not insurance: at most 10 years ahead
+    const farFuture = await upload(t.app, admin, orgId, { kind: 'insurance', expiresOn: '9999-12-31' }, file).expect(400);
+    expect(farFuture.body.errors).toEqual([{ path: 'expiresOn', message: expect.stringContaining('at most 10 years ahead') }]);
     expect(paths(await upload(t.app, admin, orgId, { kind: 'insurance', expiresOn: '31.12.2030' }, file).expect(400))).toEqual(['expiresOn']);
     expect(paths(await upload(t.app, admin, orgId, { kind: 'evidence' }, file).expect(400))).toEqual(['capabilityCode']);
     expect(paths(await upload(t.app, admin, orgId, { kind: 'evidence', capabilityCode: 'no-such-kit' }, file).expect(400))).toEqual(['capabilityCode']);

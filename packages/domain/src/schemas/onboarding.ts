@@ -5,6 +5,7 @@ import { z } from 'zod';
 import { CatalogueCodeSchema, CapabilityCategorySchema } from './catalogue';
 import { AuditEntrySchema, IdSchema, OrganisationStatusSchema, type OrganisationStatus } from './accounts';
 import { LocalDateSchema } from './hours';
+import { INSURANCE_MAX_YEARS_AHEAD, latestInsuranceExpiry } from '../vetting/insurance';
 
 /** Countries the network works in (ISO 3166-1 alpha-2). */
 export const NETWORK_COUNTRIES = ['AT', 'DE', 'CH', 'IT', 'SI', 'SE', 'NO', 'DK', 'FI'] as const;
@@ -103,6 +104,11 @@ export function documentFieldsSchema(today: string) {
     .superRefine((v, ctx) => {
       if (v.kind === 'insurance' && !v.expiresOn) ctx.addIssue({ code: 'custom', path: ['expiresOn'], message: 'Enter the date the insurance expires' });
       if (v.expiresOn && v.expiresOn <= today) ctx.addIssue({ code: 'custom', path: ['expiresOn'], message: 'The expiry date must be in the future' });
+      const latest = latestInsuranceExpiry(today);
+      // compared as text, so only a date the pattern accepted (a malformed one has its own error)
+      if (v.expiresOn && /^\d{4}-\d{2}-\d{2}$/.test(v.expiresOn) && v.expiresOn > latest) {
+        ctx.addIssue({ code: 'custom', path: ['expiresOn'], message: `The expiry date can be at most ${INSURANCE_MAX_YEARS_AHEAD} years ahead (until ${latest}): check the date on the certificate` });
+      }
       if (v.kind === 'evidence' && !v.capabilityCode) ctx.addIssue({ code: 'custom', path: ['capabilityCode'], message: 'Say which equipment the photo shows' });
     });
 }
