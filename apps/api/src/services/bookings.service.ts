@@ -139,14 +139,6 @@ export async function createBooking(ctx: BookingContext, body: BookingRequest): 
   });
   const id = newId();
   const holdExpiresAt = new Date(now.getTime() + HOLD_MINUTES * MINUTE_MS);
-  const customer = {
-    kind: body.customer.kind,
-    name: account.name,
-    email: account.email,
-    locale: account.locale,
-    companyName: body.customer.kind === 'business' ? body.customer.companyName : null,
-    vatId: body.customer.kind === 'business' ? body.customer.vatId : null,
-  };
   let reference = '';
   for (let attempt = 0; !reference; attempt++) {
     const candidate = newReference();
@@ -169,13 +161,7 @@ export async function createBooking(ctx: BookingContext, body: BookingRequest): 
           body.jobAt,
           plan.location.lat,
           plan.location.lng,
-          address ? JSON.stringify(address) : null,
-          JSON.stringify({ ...profileOf(body.vehicle), vehicleId: body.vehicleId ?? null }),
-          JSON.stringify(customer),
-          body.phone || null,
-          body.notes || null,
-          JSON.stringify(quote),
-          JSON.stringify(plan.kit),
+          ...ownerEntries(body, plan, quote, address, account),
           quote.currency,
           quote.grossMinor,
           holdExpiresAt,
@@ -217,6 +203,21 @@ export async function createBooking(ctx: BookingContext, body: BookingRequest): 
 
 type JobPlan = Awaited<ReturnType<typeof planJob>>;
 
+/** The columns the owner's entries fill (address … kit, in that order), alike for a new hold and a resumed one. */
+function ownerEntries(body: BookingRequest, plan: JobPlan, quote: ReturnType<typeof quoteFor>, address: BookingRequest['address'] | null, account: { name: string; email: string; locale: string }) {
+  const business = body.customer.kind === 'business' ? body.customer : null;
+  const customer = { kind: body.customer.kind, name: account.name, email: account.email, locale: account.locale, companyName: business?.companyName ?? null, vatId: business?.vatId ?? null };
+  return [
+    address ? JSON.stringify(address) : null,
+    JSON.stringify({ ...profileOf(body.vehicle), vehicleId: body.vehicleId ?? null }),
+    JSON.stringify(customer),
+    body.phone || null,
+    body.notes || null,
+    JSON.stringify(quote),
+    JSON.stringify(plan.kit),
+  ];
+}
+
 /**
  * The owner asks again for a time she holds herself (back from the payment page, or "try again"
  * after a declined card): that is her hold, not a race. Same partner, service and start, hold not
@@ -240,15 +241,8 @@ async function resumeOwnHold(ctx: BookingContext, body: BookingRequest, plan: Jo
   const samePlace = row.job_at === body.jobAt && Number(row.job_lat) === plan.location.lat && Number(row.job_lng) === plan.location.lng;
   const sameTechnician = !body.technicianId || body.technicianId === row.technician_user_id;
   if (samePlace && sameTechnician && quote.grossMinor === minor(row.gross_minor) && quote.currency === row.currency && row.checkout_url) {
-    const customer = { ...customerOf(row), kind: body.customer.kind, companyName: body.customer.kind === 'business' ? body.customer.companyName : null, vatId: body.customer.kind === 'business' ? body.customer.vatId : null };
     await manager.query('UPDATE booking SET address = ?, vehicle = ?, customer = ?, phone = ?, notes = ?, quote = ?, kit = ? WHERE id = ?', [
-      address ? JSON.stringify(address) : null,
-      JSON.stringify({ ...profileOf(body.vehicle), vehicleId: body.vehicleId ?? null }),
-      JSON.stringify(customer),
-      body.phone || null,
-      body.notes || null,
-      JSON.stringify(quote),
-      JSON.stringify(plan.kit),
+      ...ownerEntries(body, plan, quote, address, customerOf(row)),
       row.id,
     ]);
     await audit(ctx, { action: 'booking.resume-hold', entityType: 'booking', entityId: row.id, organisationId: row.organisation_id, after: { reference: row.reference } });
