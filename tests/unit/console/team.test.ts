@@ -81,6 +81,16 @@ describe('Console team page', () => {
     expect(invite.find('label[for="invite_email"]').text()).toBe('E-mail address');
   });
 
+  it('asks for the invitee\'s e-mail address, not the inviter\'s own', async () => {
+    const wrapper = await mountTeam('partner_admin');
+    await wrapper.find('section[aria-labelledby="invite-heading"] form').trigger('submit');
+    await flushPromises();
+    const item = wrapper.find('label[for="invite_email"]').element.closest('.ant-form-item')!;
+    expect(item.textContent).toContain('Enter the e-mail address of the person you are inviting');
+    expect(item.textContent).not.toContain('your e-mail');
+    expect(inviteMember).not.toHaveBeenCalled();
+  });
+
   it('shows the LAST_ADMIN refusal when removing the only partner admin', async () => {
     vi.mocked(removeMember).mockRejectedValue(problem(409, 'LAST_ADMIN', 'An organisation needs at least one partner admin.'));
     const wrapper = await mountTeam('partner_admin');

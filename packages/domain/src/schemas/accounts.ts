@@ -24,13 +24,19 @@ export type OrganisationStatus = z.infer<typeof OrganisationStatusSchema>;
 
 export const IdSchema = z.uuid('Not a valid id');
 
-export const EmailSchema = z
-  .string({ error: 'Enter your e-mail address' })
-  .trim()
-  .min(1, 'Enter your e-mail address')
-  .max(254, 'An e-mail address has at most 254 characters')
-  .pipe(z.email('Enter a valid e-mail address'))
-  .transform((e) => e.toLowerCase());
+/** An e-mail address, lower-cased; `missing` says whose address is asked for when none is given. */
+const emailSchema = (missing: string) =>
+  z
+    .string({ error: missing })
+    .trim()
+    .min(1, missing)
+    .max(254, 'An e-mail address has at most 254 characters')
+    .pipe(z.email('Enter a valid e-mail address'))
+    .transform((e) => e.toLowerCase());
+
+export const EmailSchema = emailSchema('Enter your e-mail address');
+/** The address of someone being invited: not the inviter's own. */
+export const InviteeEmailSchema = emailSchema('Enter the e-mail address of the person you are inviting');
 
 /**
  * A short list of the most common passwords (taken from widely published breach top lists).
@@ -173,7 +179,7 @@ export const AcceptedSchema = z.object({ data: z.object({ accepted: z.literal(tr
 
 export const UpdateAccountSchema = z.object({ name: NameSchema.optional(), locale: z.enum(['en', 'de']).optional() });
 
-export const InviteSchema = z.object({ email: EmailSchema, role: MemberRoleSchema });
+export const InviteSchema = z.object({ email: InviteeEmailSchema, role: MemberRoleSchema });
 export type Invite = z.input<typeof InviteSchema>;
 
 export const InvitationSchema = z.object({
