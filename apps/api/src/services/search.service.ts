@@ -10,6 +10,7 @@ import {
   boundingBox,
   compareResults,
   evaluateEligibility,
+  searchDateProblem,
   greatCircleDistanceM,
   MEAN_EARTH_RADIUS_M,
   MAX_SEARCH_RADIUS_KM,
@@ -201,6 +202,8 @@ export async function search(ctx: ServiceContext, q: SearchQuery, now: Date): Pr
   if (q.maxPriceMinor !== undefined && !q.currency) {
     throw ValidationFailed('Please correct the highlighted fields.', [{ path: 'query.currency', message: 'Choose the currency of the maximum price' }]);
   }
+  const dateProblem = q.date ? searchDateProblem(q.date, now) : null;
+  if (dateProblem) throw ValidationFailed('Please correct the highlighted fields.', [{ path: 'query.date', message: dateProblem }]);
   const manager = ctx.manager;
   const place = { lat: q.lat, lng: q.lng };
   const vehicle = vehicleOf(q);

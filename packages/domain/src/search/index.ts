@@ -1,1 +1,2 @@
 export * from './ranking';
+export * from './date-range';
