@@ -143,6 +143,15 @@ const BODIES: Record<string, () => object> = {
   'post /api/orgs/{orgId}/bookings/{bookingId}/decision': () => ({ action: 'accept' }),
   // the owner's booking is looked up after the body is read: a bad body would be 400 for anyone's
   'post /api/bookings/{bookingId}/reschedule': () => ({ start: new Date(Date.now() + 30 * 86_400_000).toISOString() }),
+  // technicians pass the route's guard (their own time off is theirs): the service decides on a valid body
+  'put /api/orgs/{orgId}/technicians/{userId}/hours': () => ({
+    timeZone: 'Europe/Vienna',
+    weekly: { monday: [{ start: '07:00', end: '11:00' }], tuesday: [], wednesday: [], thursday: [], friday: [], saturday: [], sunday: [] },
+    exceptions: [],
+    minimumNoticeMinutes: 120,
+    bookingHorizonDays: 60,
+    bufferMinutes: 15,
+  }),
 };
 
 /** Express routes the registry does not document on purpose (the document itself and its page). */

@@ -221,6 +221,28 @@ describe('working hours', () => {
     await request(t.app).get(hoursUrl(A, B.technician!.userId)).set(bearer(A.admin)).expect(404);
     expect(await count('working_hours', B.orgId)).toBe(0);
   });
+
+  it('lets a technician add and remove their own days off and time away, and nothing else', async () => {
+    const own = hoursUrl(A, A.technician!.userId);
+    await request(t.app).put(own).set(bearer(A.admin)).send(HOURS).expect(200);
+    const holiday = { kind: 'days-off', from: '2026-12-24', to: '2026-12-26', note: 'Family' };
+    const added = await request(t.app).put(own).set(bearer(A.technician!)).send({ ...HOURS, exceptions: [holiday] }).expect(200);
+    expect(added.body.data.hours.exceptions).toEqual([holiday]);
+    const [entry] = await t.dataSource.query("SELECT actor_user_id FROM audit_log WHERE action = 'working-hours.save' AND entity_id = ? ORDER BY id DESC LIMIT 1", [A.technician!.userId]);
+    expect(entry.actor_user_id).toBe(A.technician!.userId);
+
+    // the weekly pattern stays the partner admin's
+    const weekly = await request(t.app).put(own).set(bearer(A.technician!)).send({ ...HOURS, exceptions: [holiday], weekly: { ...HOURS.weekly, saturday: [{ start: '08:00', end: '12:00' }] } }).expect(403);
+    expect(weekly.body.code).toBe('HOURS_ADMIN_ONLY');
+    expect(weekly.body.detail).toContain('your own days off');
+    // and so are a colleague's hours
+    const colleague = await request(t.app).put(hoursUrl(A, A.admin.userId)).set(bearer(A.technician!)).send(HOURS).expect(403);
+    expect(colleague.body.code).toBe('HOURS_ADMIN_ONLY');
+    expect((await request(t.app).get(own).set(bearer(A.admin)).expect(200)).body.data.hours.exceptions).toEqual([holiday]);
+
+    await request(t.app).put(own).set(bearer(A.technician!)).send({ ...HOURS, exceptions: [] }).expect(200);
+    expect((await request(t.app).get(own).set(bearer(A.admin)).expect(200)).body.data.hours.exceptions).toEqual([]);
+  });
 });
 
 describe('service area', () => {

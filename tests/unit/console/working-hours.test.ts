@@ -20,8 +20,8 @@ vi.mock('@/api/auth', () => ({ refreshSession: vi.fn(), signIn: vi.fn(), signOut
 vi.mock('@/api/team', () => ({ getTeam: vi.fn() }));
 vi.mock('@/api/offers', () => ({ getWorkingHours: vi.fn(), saveWorkingHours: vi.fn() }));
 
-async function mountPage(role: MemberRole = 'partner_admin') {
-  vi.mocked(refreshSession).mockResolvedValue(session(me({ memberships: [member(role)] })));
+async function mountPage(role: MemberRole = 'partner_admin', userId?: string) {
+  vi.mocked(refreshSession).mockResolvedValue(session(me({ ...(userId ? { id: userId } : {}), memberships: [member(role)] })));
   const router = createAppRouter(createMemoryHistory());
   await router.push('/hours');
   await router.isReady();
@@ -141,5 +141,24 @@ describe('Working hours', { timeout: 30_000 }, () => {
     expect(wrapper.find('[data-testid="add-interval"]').exists()).toBe(false);
     expect(wrapper.find('[data-testid="exception-form"]').exists()).toBe(false);
     expect(wrapper.find<HTMLSelectElement>('[data-day="monday"] select').element.disabled).toBe(true);
+  });
+
+  it('lets a technician add their own days off and save them, but not extra hours or the week', async () => {
+    vi.mocked(saveWorkingHours).mockImplementation(async (_org, userId, body) => ({ organisationId: ORG_A, userId, hours: weekdayHours({ exceptions: body.exceptions as never }) }));
+    const wrapper = await mountPage('technician', TECH_ID);
+    expect(wrapper.find('[data-testid="add-interval"]').exists()).toBe(false);
+    expect(wrapper.find<HTMLSelectElement>('[data-day="monday"] select').element.disabled).toBe(true);
+    expect(document.body.querySelector('input[value="extra-hours"]')).toBeNull();
+    const today = DateTime.now().toISODate()!;
+    await $('#exception_from').setValue(today);
+    await $('#exception_to').setValue(today);
+    await $('[data-testid="exception-form"]').trigger('submit');
+    await flushPromises();
+    await wrapper.find('[data-testid="save-hours"]').trigger('click');
+    await flushPromises();
+    const [, userId, body] = vi.mocked(saveWorkingHours).mock.calls[0]!;
+    expect(userId).toBe(TECH_ID);
+    expect(body.exceptions).toEqual([{ kind: 'days-off', from: today, to: today }]);
+    expect(body.weekly).toMatchObject({ monday: [{ start: '08:00', end: '17:00' }] });
   });
 });

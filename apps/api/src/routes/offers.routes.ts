@@ -1,5 +1,6 @@
 // What an organisation sells, under /orgs/:orgId: offers, parts, booking settings, travel policy
-// and technicians' working hours. Partner admins change them; the whole team and network admins read.
+// and technicians' working hours. Partner admins change them (technicians their own time off); the
+// whole team and network admins read.
 import { z } from 'zod';
 import {
   BookingSettingsInputSchema,
@@ -167,9 +168,10 @@ export function registerOfferRoutes(api: ApiRouter, app: AppContext): void {
       method: 'put',
       path: '/orgs/:orgId/technicians/:userId/hours',
       summary: 'Set a member\'s working hours',
-      description: 'Weekly pattern in an IANA time zone, exceptions and booking rules; intervals on one day must not overlap.',
+      description: 'Weekly pattern in an IANA time zone, exceptions and booking rules; intervals on one day must not overlap. Partner admins change any member\'s hours; a technician may change only their own days off and time away (403 HOURS_ADMIN_ONLY otherwise).',
       tags,
-      ...write,
+      org: true,
+      roles: ['partner_admin', 'technician'],
       params: MemberParams,
       body: WorkingHoursSchema,
       response: z.object({ data: TechnicianHoursSchema }),

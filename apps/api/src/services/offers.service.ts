@@ -3,6 +3,7 @@
 // 404 (path ids) or a field error that says nothing of the other organisation (body ids).
 import type { EntityManager } from 'typeorm';
 import {
+  changesOnlyTimeOff,
   WorkingHoursSchema,
   type BookingSettings,
   type BookingSettingsInput,
@@ -33,6 +34,7 @@ import { json } from '../lib/json-column';
 export const OfferExists = createError('OFFER_EXISTS', 409, 'The service type is already offered');
 export const PartInUse = createError('PART_IN_USE', 409, 'The part is in a parts kit');
 export const AreaLocked = createError('AREA_IN_APPLICATION', 409, 'The service area is part of the application');
+export const HoursAdminOnly = createError('HOURS_ADMIN_ONLY', 403, 'Only a partner admin changes these working hours');
 
 /** Audits a change to one of the organisation's records with its state before and after. */
 function record(ctx: ServiceContext, action: string, entityType: string, entityId: string, before: object | null, after: object | null): Promise<void> {
@@ -425,6 +427,10 @@ export async function saveHours(ctx: ServiceContext, userId: string, draft: Work
   // the route validated already; parse again so only the schema's output is ever stored
   const hours = WorkingHoursSchema.parse(draft);
   const before = (await getHours(ctx, userId)).hours;
+  // a technician keeps their own time off; everything else is the partner admin's (domain rule)
+  if (!ctx.actor.roles.includes('partner_admin') && (userId !== ctx.actor.userId || !changesOnlyTimeOff(before, hours))) {
+    throw HoursAdminOnly(userId === ctx.actor.userId ? 'You can add and remove your own days off and time away; ask a partner admin to change your weekly hours, extra hours or booking rules.' : 'Only a partner admin changes a colleague’s working hours.');
+  }
   await ctx.manager.query('INSERT INTO working_hours (organisation_id, user_id, hours) VALUES (?, ?, ?) ON DUPLICATE KEY UPDATE hours = VALUES(hours)', [
     orgOf(ctx),
     userId,

@@ -870,7 +870,7 @@ const en = {
   hours: {
     title: 'Working hours',
     leadAdmin: 'When each member works, in their own time zone, and the rules for booking them. Owners are offered times inside these hours.',
-    leadMember: 'When each member of your organisation works. Partner admins change the hours.',
+    leadMember: 'When each member of your organisation works. Partner admins change the hours; you add and remove your own days off and time away.',
     loadingTeam: 'Loading your team…',
     loading: 'Loading the working hours…',
     noMembers: 'No members yet',

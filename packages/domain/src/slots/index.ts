@@ -2,3 +2,4 @@
 export * from './types';
 export { computeSlots, toEpochMs, DEFAULT_GRID_MINUTES, MAX_SEARCH_DAYS } from './engine';
 export * from './weekly-union';
+export * from './own-time-off';
