@@ -78,6 +78,9 @@ describe('starting and finishing a job', () => {
     const { owner, booking } = await confirmed(3);
     await appointmentStartsNow(t.dataSource, booking.id);
     await decide(booking.id, { action: 'start' }).expect(200);
+    // under way, the owner is given a way to reach the partner
+    const underWay = (await request(t.app).get(`/api/bookings/${booking.id}`).set(bearer(owner)).expect(200)).body.data;
+    expect(underWay).toMatchObject({ status: 'in_progress', partner: { email: P.admin.email } });
     const done = (await decide(booking.id, { action: 'complete' }).expect(200)).body.data;
     expect(done).toMatchObject({ status: 'completed', payment: { status: 'captured', capturedMinor: 7200 } });
     const [receipt, ...more] = await mails(t.dataSource, owner.email, 'booking-completed');

@@ -235,6 +235,19 @@ describe('Directory bookings', () => {
     expect(wrapper.find('[data-testid="detail-change"]').exists()).toBe(false);
   });
 
+  it('while the job is under way, offers to call or e-mail the partner and to report a problem', async () => {
+    vi.mocked(getMyBooking).mockResolvedValue(
+      bookingOf({ status: 'in_progress', partner: { id: PARTNER, name: 'Glutwerk Mobil', phone: '+43 512 987 654', email: 'office@glutwerk.example' }, cancellationNow: { allowed: false, feeMinor: 0, refundMinor: 0 } }),
+    );
+    const wrapper = await mountAt(`/bookings/${BOOKING}`);
+    expect(wrapper.find('h1').text()).toBe('The job is under way');
+    const help = wrapper.find('[data-testid="under-way"]');
+    expect(help.find('[data-testid="call-partner"]').attributes('href')).toBe('tel:+43512987654');
+    expect(help.find('[data-testid="call-partner"]').text()).toBe('Call +43 512 987 654');
+    expect(help.find('[data-testid="mail-partner"]').attributes('href')).toBe('mailto:office@glutwerk.example');
+    expect(help.find('[data-testid="report-problem"]').attributes('href')).toBe('mailto:office@glutwerk.example?subject=Problem%20with%20booking%20EMB-7K2Q');
+  });
+
   it('says a free cancellation is free', async () => {
     vi.mocked(getMyBooking).mockResolvedValue(bookingOf());
     const wrapper = await mountAt(`/bookings/${BOOKING}`);

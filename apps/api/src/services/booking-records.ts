@@ -56,6 +56,8 @@ export interface BookingRow {
   updated_at: Date;
   // joined
   partner_name: string;
+  partner_phone: string | null;
+  partner_email: string | null;
   workshop_address: string | null;
   base_lat: number | null;
   base_lng: number | null;
@@ -74,7 +76,9 @@ export interface BookingCustomerRecord {
   vatId: string | null;
 }
 
-export const BOOKING_SELECT = `SELECT b.*, COALESCE(p.trading_name, o.name) AS partner_name, p.workshop_address, p.base_lat, p.base_lng,
+export const BOOKING_SELECT = `SELECT b.*, COALESCE(p.trading_name, o.name) AS partner_name, p.phone AS partner_phone,
+    (SELECT u.email FROM membership m JOIN user_account u ON u.id = m.user_id WHERE m.organisation_id = b.organisation_id AND m.role = 'partner_admin' ORDER BY m.created_at, m.user_id LIMIT 1) AS partner_email,
+    p.workshop_address, p.base_lat, p.base_lng,
     st.code AS service_code, st.name AS service_name, t.name AS technician_name
   FROM booking b
   JOIN organisation o ON o.id = b.organisation_id
@@ -131,6 +135,9 @@ async function historyOf(manager: EntityManager, ids: string[]): Promise<Map<str
 
 export type BookingView = 'owner' | 'partner';
 
+/** Statuses in which the owner is given the partner's phone and e-mail: the time is agreed. */
+const AGREED = new Set<BookingStatus>(['confirmed', 'in_progress', 'completed']);
+
 function toBooking(r: BookingRow, history: Booking['history'], view: BookingView, now: Date, startWindowMinutes: number | null): Booking {
   const quote = quoteOf(r);
   const customer = customerOf(r);
@@ -141,7 +148,7 @@ function toBooking(r: BookingRow, history: Booking['history'], view: BookingView
     id: r.id,
     reference: r.reference,
     status: r.status,
-    partner: { id: r.organisation_id, name: r.partner_name },
+    partner: { id: r.organisation_id, name: r.partner_name, ...(AGREED.has(r.status) ? { phone: r.partner_phone, email: r.partner_email } : {}) },
     serviceType: { code: r.service_code, name: r.service_name },
     start: iso(r.start_at),
     end: iso(r.end_at),

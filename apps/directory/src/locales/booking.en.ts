@@ -235,6 +235,13 @@ const bookingEn = {
       safetyTitle: 'Safety for this job',
       priceTitle: 'Price',
     },
+    underWay: {
+      lead: 'While the job is under way you can reach {name} directly.',
+      call: 'Call {phone}',
+      write: 'E-mail {name}',
+      report: 'Report a problem',
+      reportSubject: 'Problem with booking {reference}',
+    },
     standing: {
       confirmingTitle: 'Confirming your payment…',
       confirmingText: 'The payment provider is telling us your payment went through. This usually takes a few seconds.',

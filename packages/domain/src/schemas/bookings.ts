@@ -137,7 +137,8 @@ export const BookingSchema = z.object({
   id: IdSchema,
   reference: z.string().describe('Short code for e-mails and phone calls'),
   status: BookingStatusSchema,
-  partner: z.object({ id: IdSchema, name: z.string() }),
+  /** `phone` and `email` (the first partner admin's) once the time is agreed, so the owner can reach them. */
+  partner: z.object({ id: IdSchema, name: z.string(), phone: z.string().nullable().optional(), email: z.string().nullable().optional() }),
   serviceType: z.object({ code: CatalogueCodeSchema, name: z.string() }),
   start: z.string(),
   end: z.string(),
