@@ -5,7 +5,7 @@
 // card, and the way back from the payment page, which resumes her own hold. Desktop and phone screenshots, axe on each of our pages.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { TEST_CARD } from '../setup/payments';
-import { bookingIdOf, bookUpToPay, ignoreProviderPageLoads, payOnProviderPage, payWith } from './booking-steps';
+import { bookingIdOf, bookUpToPay, ignoreProviderPageLoads, payOnProviderPage, payWith, signInTo } from './booking-steps';
 import { DESKTOP, expectAccessible, openPage, PHONE, screenshot, startHarness, type Harness } from './browser';
 
 let h: Harness;
@@ -175,6 +175,28 @@ describe('booking', () => {
     await page.waitForURL(new RegExp(`/bookings/${first}\\?paid=1$`));
     paid();
     await page.getByRole('heading', { level: 1, name: /Your booking is confirmed|waiting for Glutwerk Mobil to accept/ }).waitFor({ timeout: 30_000 });
+
+    expect(problems).toEqual([]);
+    await context.close();
+  });
+  it('the vehicle typed into the search is the one in the booking form; a garage van starts a search of its own', { timeout: 120_000 }, async () => {
+    const { page, context, problems } = await openPage(h, DESKTOP);
+    const typed = 'model=Test+van&fuel=diesel&factoryHeater=coolant_auxiliary&climateControl=automatic&electricalSystemV=12&year=2021';
+    await signInTo(page, `/search?service=seasonal-heater-service&place=Innsbruck%2C+Austria&lat=47.2627&lng=11.3945&${typed}`);
+    await page.getByRole('link', { name: 'Glutwerk Mobil', exact: true }).first().click();
+    await page.getByRole('heading', { level: 1, name: 'Glutwerk Mobil' }).waitFor();
+    await page.getByTestId('book-slot').first().click();
+    await page.getByTestId('slot-continue').click();
+    // not Clara's garage van, which the form would otherwise choose: the one she searched with
+    await page.getByTestId('book-details').waitFor();
+    expect(await page.locator('#book-vehicle-model').inputValue()).toBe('Test van');
+    expect(await page.locator('#book-vehicle-year').inputValue()).toBe('2021');
+    expect(await page.getByTestId('vehicle-summary').count()).toBe(0);
+    await screenshot(page, 'directory-book-searched-vehicle-1440');
+
+    await page.goto('/garage');
+    await page.getByTestId('find-technician').first().click();
+    await page.waitForURL((url) => url.pathname === '/search' && url.searchParams.get('model') === 'Korvan Cargo 4' && !!url.searchParams.get('vehicle'));
 
     expect(problems).toEqual([]);
     await context.close();

@@ -104,8 +104,14 @@ export function toRouteQuery(s: SearchState): LocationQueryRaw {
   }
   if (s.date) q.date = s.date;
   if (s.sort !== 'best') q.sort = s.sort;
-  if (s.vehicleId) q.vehicle = s.vehicleId;
-  for (const field of VEHICLE_FIELDS) if (s.vehicle[field]) q[field] = s.vehicle[field];
+  return { ...q, ...vehicleRouteQuery(s.vehicleId, s.vehicle) };
+}
+
+/** The vehicle part of a route query, carried from the search to the profile and on to the booking form. */
+export function vehicleRouteQuery(vehicleId: string, vehicle: VehicleFields): Record<string, string> {
+  const q: Record<string, string> = {};
+  if (vehicleId) q.vehicle = vehicleId;
+  for (const field of VEHICLE_FIELDS) if (vehicle[field]) q[field] = vehicle[field];
   return q;
 }
 

@@ -25,6 +25,8 @@ const garageEn = {
     climateSummary: '{value} climate control',
     plan: 'Plan pre-heating',
     planFor: 'Plan pre-heating for {name}',
+    findTechnician: 'Find a technician for this van',
+    findTechnicianFor: 'Find a technician for {name}',
     edit: 'Edit',
     editFor: 'Edit {name}',
     remove: 'Remove',
