@@ -1,18 +1,12 @@
 // Dashboard "Waiting for you": requests to answer for partner admins, soonest first, each linking
 // to its booking; technicians do not get the card.
 import { beforeEach, describe, expect, it, vi } from 'vitest';
-import { flushPromises, mount } from '@vue/test-utils';
 import { createPinia, setActivePinia } from 'pinia';
-import { createMemoryHistory } from 'vue-router';
-import type { MemberRole } from '@emberline/domain';
-import { refreshSession } from '@/api/auth';
 import { listPartnerBookings } from '@/api/bookings';
 import { listCapabilities, listServiceTypes } from '@/api/catalogue';
 import { listParts } from '@/api/offers';
-import { i18n } from '@/locales';
-import { createAppRouter } from '@/router';
-import Dashboard from '@/views/dashboard/index.vue';
-import { ORG_A, me, member, session } from './fixtures';
+import { mountDashboard } from './dashboard-fixtures';
+import { ORG_A } from './fixtures';
 import { BOOKING_ID, SECOND_ID, booking } from './booking-fixtures';
 
 vi.mock('@/api/auth', () => ({ refreshSession: vi.fn(), signIn: vi.fn(), signOut: vi.fn() }));
@@ -20,15 +14,6 @@ vi.mock('@/api/catalogue', () => ({ listServiceTypes: vi.fn(), listCapabilities:
 vi.mock('@/api/offers', () => ({ listParts: vi.fn() }));
 vi.mock('@/api/bookings', () => ({ listPartnerBookings: vi.fn(), getPartnerBooking: vi.fn(), decideBooking: vi.fn(), fetchBookingsCsv: vi.fn() }));
 
-async function mountDashboard(role: MemberRole) {
-  vi.mocked(refreshSession).mockResolvedValue(session(me({ memberships: [member(role)] })));
-  const router = createAppRouter(createMemoryHistory());
-  await router.push('/dashboard');
-  await router.isReady();
-  const wrapper = mount(Dashboard, { global: { plugins: [router, i18n] } });
-  await flushPromises();
-  return wrapper;
-}
 
 describe('Dashboard: waiting for you', () => {
   beforeEach(() => {

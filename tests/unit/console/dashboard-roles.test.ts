@@ -2,20 +2,14 @@
 // jobs, requests, stock and what owners paid this month, a network admin the applications waiting
 // and the coverage gaps with the catalogue; partners no longer get catalogue counts.
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { flushPromises, mount } from '@vue/test-utils';
 import { createPinia, setActivePinia } from 'pinia';
-import { createMemoryHistory } from 'vue-router';
-import type { Booking, MemberRole } from '@emberline/domain';
-import { refreshSession } from '@/api/auth';
+import type { Booking } from '@emberline/domain';
 import { listPartnerBookings } from '@/api/bookings';
 import { listCapabilities, listServiceTypes } from '@/api/catalogue';
 import { listParts } from '@/api/offers';
 import { listApplications } from '@/api/onboarding';
 import { getCoverageGaps } from '@/api/search-admin';
-import { i18n } from '@/locales';
-import { createAppRouter } from '@/router';
-import Dashboard from '@/views/dashboard/index.vue';
-import { me, member, session } from './fixtures';
+import { mountDashboard } from './dashboard-fixtures';
 import { booking } from './booking-fixtures';
 
 vi.mock('@/api/auth', () => ({ refreshSession: vi.fn(), signIn: vi.fn(), signOut: vi.fn() }));
@@ -28,15 +22,6 @@ vi.mock('@/api/bookings', () => ({ listPartnerBookings: vi.fn(), getPartnerBooki
 const NOW = new Date('2026-03-10T06:00:00Z');
 const at = (iso: string, status: Booking['status'], id: string) => booking({ id, reference: `EMB-${id.slice(-4)}`, status, start: iso, end: iso });
 
-async function mountAs(membership: MemberRole | null, roles: ('network_admin')[] = []) {
-  vi.mocked(refreshSession).mockResolvedValue(session(me({ roles, memberships: membership ? [member(membership)] : [] })));
-  const router = createAppRouter(createMemoryHistory());
-  await router.push('/dashboard');
-  await router.isReady();
-  const wrapper = mount(Dashboard, { global: { plugins: [router, i18n] } });
-  await flushPromises();
-  return wrapper;
-}
 
 describe('Dashboard by role', () => {
   beforeEach(() => {
@@ -64,7 +49,7 @@ describe('Dashboard by role', () => {
   afterEach(() => vi.useRealTimers());
 
   it('a technician sees their day and the coming days, not the catalogue', async () => {
-    const wrapper = await mountAs('technician');
+    const wrapper = await mountDashboard('technician');
     const jobs = wrapper.find('[data-testid="jobs-card"]');
     expect(jobs.find('h2').text()).toBe('Your day');
     expect(jobs.find('[data-testid="jobs-today"]').findAll('li a').map((a) => a.attributes('data-booking'))).toEqual(['00000000-0000-4000-8000-00000000a001', '00000000-0000-4000-8000-00000000a002']);
@@ -77,7 +62,7 @@ describe('Dashboard by role', () => {
   });
 
   it('a partner admin sees the team’s jobs with who does them, requests, and what owners paid this month', async () => {
-    const wrapper = await mountAs('partner_admin');
+    const wrapper = await mountDashboard('partner_admin');
     const jobs = wrapper.find('[data-testid="jobs-card"]');
     expect(jobs.find('h2').text()).toBe('Jobs today and in the next six days');
     expect(jobs.text()).toContain('Jonas Brandt');
@@ -93,7 +78,7 @@ describe('Dashboard by role', () => {
   it('a network admin sees applications waiting and coverage gaps beside the catalogue', async () => {
     vi.mocked(listApplications).mockResolvedValue([{} as never, {} as never]);
     vi.mocked(getCoverageGaps).mockResolvedValue({ data: [{ lat: 47.3, lng: 11.4, serviceTypeCode: 'seasonal-service', searches: 5, alerts: 1, lastSearchedAt: '2026-03-09T10:00:00Z' }], meta: { days: 30, totalSearches: 5 } });
-    const wrapper = await mountAs(null, ['network_admin']);
+    const wrapper = await mountDashboard(null, ['network_admin']);
     expect(listApplications).toHaveBeenCalledWith({ status: 'submitted', sort: 'waiting' }, expect.anything());
     expect(wrapper.find('[data-testid="network-applications"]').text()).toContain('2 applications waiting for a decision');
     expect(wrapper.find('[data-testid="network-gaps"]').text()).toContain('in one place in the last 30 days (5 searches)');
