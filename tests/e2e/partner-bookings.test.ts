@@ -64,7 +64,7 @@ it('a partner admin filters the bookings, exports them, accepts a request and se
   expect(await actions.getByRole('button').allTextContents()).toEqual(['Accept', 'Decline']);
   await page.getByTestId('workshop-address').getByText('Landsberger Straße 302').waitFor();
   await page.getByTestId('booking-cautions').waitFor();
-  await page.getByTestId('partner-share').getByText('You receive').waitFor();
+  await page.getByTestId('partner-share').getByText('Your share', { exact: true }).last().waitFor();
   await screenshot(page, 'console-booking-requested-1440');
   await expectAccessible(page, 'booking detail');
 
