@@ -28,6 +28,7 @@ const cases: Case[] = [
   ['Camper 2: the air heater retrofit fits', camper2, 'air-heater-installation', { eligible: true, rules: [], extraMinutes: 0 }],
   ['Transit 9: already a parking heater, nothing to convert (and 24 V noted)', transit9, 'parking-conversion-auto', { eligible: false, rules: ['already-a-parking-heater', 'twenty-four-volt-parts'], extraMinutes: 15 }],
   ['Transit 9: remote kit fits with 24 V parts and 15 more minutes', transit9, 'remote-kit-fitting', { eligible: true, rules: ['twenty-four-volt-parts'], extraMinutes: 15 }],
+  ['Cargo 4: a remote kit alone cannot start an auxiliary-only heater; the conversion comes first', cargo4, 'remote-kit-fitting', { eligible: false, rules: ['auxiliary-heater-needs-conversion'], extraMinutes: 0, suggest: ['parking-conversion-auto', 'parking-conversion-manual'] }],
   ['Transit 9: handset pairing, no rule', transit9, 'handset-pairing', { eligible: true, rules: [], extraMinutes: 0 }],
   ['petrol camper: air heater with a separate pickup', { ...camper2, fuel: 'petrol' }, 'air-heater-installation', { eligible: true, rules: ['petrol-air-heater-fuel-pickup'], extraMinutes: 60 }],
   ['2009 van: firmware update is read first', { ...cargo4, year: 2009 }, 'control-unit-firmware-update', { eligible: true, rules: ['older-control-unit-check'], extraMinutes: 15 }],

@@ -1,6 +1,7 @@
 // The platform's starting vehicle rules, seeded once and then edited by network admins. Trade
 // facts behind them are common practice, no source: a conversion needs a factory coolant heater
-// to convert; manual climate control needs extra wiring; 24 V vehicles need 24 V parts.
+// to convert; an auxiliary-only heater must be converted before a remote kit can start it; manual
+// climate control needs extra wiring; 24 V vehicles need 24 V parts.
 import type { EligibilityRuleInput } from '@emberline/domain';
 
 const CONVERSIONS = ['parking-conversion-auto', 'parking-conversion-manual'];
@@ -24,6 +25,16 @@ export const ELIGIBILITY_RULES: EligibilityRuleInput[] = [
       severity: 'block',
       message: 'The heater already works as a parking heater. A remote-control kit, handset pairing or a fault diagnosis is what you are looking for.',
       suggestServiceTypes: ['remote-kit-fitting', 'handset-pairing', 'heater-fault-diagnosis'],
+    },
+  },
+  {
+    code: 'auxiliary-heater-needs-conversion',
+    serviceTypes: ['remote-kit-fitting'],
+    when: { factoryHeater: ['coolant_auxiliary'] },
+    effect: {
+      severity: 'block',
+      message: 'The factory heater runs only as an auxiliary heater while the engine runs, so a remote kit alone cannot start it: the conversion to a parking heater comes first, and it includes the remote receiver.',
+      suggestServiceTypes: CONVERSIONS,
     },
   },
   {
