@@ -43,6 +43,16 @@ it('a network admin sees where owners searched in vain and edits a vehicle rule'
   await page.goto('/console/admin/catalogue');
   await page.getByRole('heading', { level: 2, name: 'Vehicle rules' }).waitFor();
   const rules = page.getByTestId('rules-table');
+  // at 1440 px the rules table stays inside its card (it scrolls there) and the page does not scroll sideways
+  await rules.waitFor();
+  const widths = await page.evaluate(() => {
+    const card = document.querySelector('.rules')!.closest('.page__card')!;
+    const siblings = [...document.querySelectorAll('#console-main .page__card')].map((c) => Math.round(c.getBoundingClientRect().width));
+    return { card: Math.round(card.getBoundingClientRect().width), widest: Math.max(...siblings), narrowest: Math.min(...siblings), page: document.documentElement.scrollWidth, viewport: window.innerWidth };
+  });
+  // as wide as the other cards of the page, not wider
+  expect(widths.card).toBeLessThanOrEqual(widths.narrowest + 1);
+  expect(widths.page).toBeLessThanOrEqual(widths.viewport);
   const rule = rules.locator('tr', { hasText: 'twenty-four-volt-parts' });
   await rule.waitFor();
   await rule.getByRole('button', { name: 'Edit rule twenty-four-volt-parts' }).click();
