@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createPaymentGateway } from '../../apps/api/src/payments/gateway';
 import { createTestApp, type TestApp } from '../setup/app';
 import type { SignedIn } from '../setup/accounts';
-import { book, bookablePartner, bookingCount, bookingRequest, bookingRow, deliverWebhooksTo, newOwner, pay, slotStarts, type BookablePartner } from '../setup/bookings';
+import { appointmentStartsNow, book, bookablePartner, bookingCount, bookingRequest, bookingRow, deliverWebhooksTo, newOwner, pay, slotStarts, type BookablePartner } from '../setup/bookings';
 import { bearer } from '../setup/onboarding';
 import { startPaymentsFake, TEST_CARD, type TestPaymentsFake } from '../setup/payments';
 import { printFigures } from './fault-helpers';
@@ -81,6 +81,8 @@ describe('the payments provider failing', () => {
 
     expect((await pay(fake, t.dataSource, id, TEST_CARD.succeeds)).outcome).toBe('succeeded');
     await decide(id, 'accept').expect(200);
+    // a job starts only on its day, from shortly before its time
+    await appointmentStartsNow(t.dataSource, id);
     await decide(id, 'start').expect(200);
     fake.fake.failNext(1, 'disconnect');
     const done = await decide(id, 'complete');
